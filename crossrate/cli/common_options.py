@@ -1,0 +1,87 @@
+"""Options shared by several subcommands, and the one place the CLI turns them into services' inputs."""
+
+import argparse
+import math
+
+from ..core.constants import DEFAULT_Z, STANDARD_TEMPERATURE
+
+
+def finite_float(text: str) -> float:
+    """argparse type: a finite number (rejects nan, inf and words)."""
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a number") from None
+    if not math.isfinite(value):
+        raise argparse.ArgumentTypeError(f"{text!r}: expected a finite number")
+    return value
+
+
+def positive_float(text: str) -> float:
+    """argparse type: a finite number > 0."""
+    value = finite_float(text)
+    if value <= 0:
+        raise argparse.ArgumentTypeError(f"{text!r}: expected a number greater than 0")
+    return value
+
+
+def add_library_option(parser: argparse.ArgumentParser) -> None:
+    """--library PATH (repeatable), --no-bundled."""
+    parser.add_argument(
+        "--library",
+        action="append",
+        default=[],
+        metavar="PATH",
+        help="library file added on top of the layered set (bundled, group, personal); repeatable",
+    )
+    parser.add_argument(
+        "--no-bundled", action="store_true", help="leave out the bundled libraries (demo and starter)"
+    )
+
+
+def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: str = "the couples' own") -> None:
+    """--temperature, --ionic-strength, --medium, --allow-mixed-media, --Z, --no-diffusion."""
+    g = parser.add_argument_group("conditions")
+    g.add_argument(
+        "--temperature", type=finite_float, default=STANDARD_TEMPERATURE, metavar="K",
+        help=f"temperature in K (default {STANDARD_TEMPERATURE})",
+    )
+    g.add_argument(
+        "--ionic-strength", type=finite_float, default=None, metavar="M",
+        help=f"ionic strength in mol/L (default: {ionic_default_text} when they agree)",
+    )
+    g.add_argument("--medium", default=None, metavar="NAME", help="solvent key (default: the couples' own)")
+    g.add_argument(
+        "--allow-mixed-media", action="store_true",
+        help="allow couples measured in different media (with a warning)",
+    )
+    g.add_argument(
+        "--Z", type=positive_float, default=DEFAULT_Z, metavar="VALUE",
+        help=f"collision factor Z in M^-1 s^-1 (default {DEFAULT_Z:g})",
+    )
+    g.add_argument("--no-diffusion", action="store_true", help="do not cap the rate at the diffusion limit")
+
+
+def add_format_option(parser: argparse.ArgumentParser, choices=("table", "json"), default="table") -> None:
+    parser.add_argument("--format", choices=choices, default=default, help=f"output form (default {default})")
+
+
+def conditions_from_args(args):
+    """Conditions built from the condition options (ConditionsError for values out of range)."""
+    from ..services.conditions import Conditions
+
+    return Conditions(
+        temperature_K=args.temperature,
+        ionic_strength_M=args.ionic_strength,
+        medium=args.medium,
+        Z=args.Z,
+        diffusion=not args.no_diffusion,
+        allow_mixed_media=args.allow_mixed_media,
+    )
+
+
+def load_set(args):
+    """The layered CoupleSet: bundled (unless --no-bundled), group, personal, then each --library."""
+    from ..library.layers import load_layered
+
+    return load_layered(extra_paths=tuple(getattr(args, "library", []) or []), bundled=not getattr(args, "no_bundled", False))

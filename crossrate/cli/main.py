@@ -1,0 +1,93 @@
+"""crossrate command line: `crossrate` alone opens the workbench; subcommands answer in one line over SSH."""
+
+import argparse
+import importlib
+import sys
+
+from .. import __version__
+
+#: Subcommand modules, each exposing register(subparsers); imported only when the parser is built.
+COMMAND_MODULES = (
+    "predict_cmd",
+    "screen_cmd",
+    "map_cmd",
+    "check_cmd",
+    "solve_cmd",
+    "fit_cmd",
+    "lambda_cmd",
+    "library_cmd",
+)
+
+CAUTION = (
+    "Predictions are estimates, not a safety assessment: follow your lab's safety rules and local "
+    "regulations when handling strong oxidants and reductants."
+)
+
+DESCRIPTION = (
+    "Predict and check outer-sphere electron-transfer cross rates (Marcus cross relation with work terms "
+    "and the diffusion limit) from a layered library of redox couples. Run without a command to open the "
+    "terminal workbench."
+)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="crossrate",
+        description=DESCRIPTION,
+        epilog=CAUTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    parser.add_argument("--version", action="version", version=f"crossrate {__version__}")
+    parser.add_argument("--debug", action="store_true", help="show a traceback on errors")
+    parser.add_argument(
+        "--library",
+        action="append",
+        default=[],
+        metavar="PATH",
+        help="extra library file on top of the layered set (repeatable); used by the workbench",
+    )
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    for name in COMMAND_MODULES:
+        try:
+            module = importlib.import_module(f".{name}", __package__)
+        except ModuleNotFoundError as exc:
+            if exc.name != f"{__package__}.{name}":
+                raise
+            continue
+        module.register(sub)
+    return parser
+
+
+def _run_tui(args) -> int:
+    from ..tui.app import run_app
+
+    return run_app(library_paths=args.library)
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Entry point of the `crossrate` console script. Returns the process exit code."""
+    from ..errors import CrossrateError
+
+    argv = list(sys.argv[1:] if argv is None else argv)
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    try:
+        if args.command is None:
+            return _run_tui(args)
+        return int(args.func(args) or 0)
+    except CrossrateError as exc:
+        if args.debug:
+            raise
+        print(f"crossrate: {exc}", file=sys.stderr)
+        return 2
+    except (OSError, UnicodeDecodeError) as exc:
+        if args.debug:
+            raise
+        print(f"crossrate: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        return 130
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,1 @@
+"""The couple library: TOML reading, validation, layering and safe writing."""

@@ -1,0 +1,139 @@
+"""CoupleSet: the resolved, layered set of couples the program works on, and its numpy view."""
+
+import difflib
+from dataclasses import dataclass
+from functools import cached_property
+
+import numpy as np
+
+from ..core.constants import ANGSTROM, KJ
+from ..core.potential_scales import ScaleRegistry
+from ..errors import UnknownCoupleError
+from .couple import Couple, Origin
+
+
+@dataclass(frozen=True)
+class Shadowing:
+    """Couple `couple_id` from `hidden` is replaced by the one from `winner` (a later layer)."""
+
+    couple_id: str
+    hidden: Origin
+    winner: Origin
+
+
+@dataclass(frozen=True)
+class CoupleArrays:
+    """Column arrays over the couples of a set, in set order, SI units.
+
+    E_root_V: effective potential (excited state applied) on the couple's root scale, V.
+    scale_root: root scale key per couple (couples compare only when their roots are equal).
+    ln_k_self: ln of k_self in M^-1 s^-1 (NaN where absent); ln_k_self_sd: natural-log SD (NaN where absent).
+    E_sd_V: V (NaN where absent). dH_self_J: J/mol (NaN where absent). radius_m: m.
+    I0_M, T0_K: conditions of the measurement. medium: solvent key per couple.
+    lambda_in_J, lambda_total_J: J/mol (NaN where absent).
+    """
+
+    ids: tuple[str, ...]
+    E_root_V: np.ndarray
+    scale_root: np.ndarray
+    z_ox: np.ndarray
+    z_red: np.ndarray
+    radius_m: np.ndarray
+    ln_k_self: np.ndarray
+    ln_k_self_sd: np.ndarray
+    E_sd_V: np.ndarray
+    dH_self_J: np.ndarray
+    I0_M: np.ndarray
+    T0_K: np.ndarray
+    medium: np.ndarray
+    lambda_in_J: np.ndarray
+    lambda_total_J: np.ndarray
+    verified: np.ndarray
+
+
+def _opt(values):
+    return np.array([np.nan if v is None else float(v) for v in values], dtype=float)
+
+
+class CoupleSet:
+    """An ordered mapping id -> Couple with provenance, the shadowed entries and the potential scales."""
+
+    def __init__(
+        self,
+        couples: list[Couple],
+        scales: ScaleRegistry | None = None,
+        shadowed: list[Shadowing] | None = None,
+        files: list[str] | None = None,
+    ):
+        self._couples: dict[str, Couple] = {}
+        for c in couples:
+            self._couples[c.id] = c
+        self.scales = scales or ScaleRegistry()
+        self.shadowed = list(shadowed or [])
+        self.files = list(files or [])
+        self._index = {cid: i for i, cid in enumerate(self._couples)}
+
+    def __len__(self) -> int:
+        return len(self._couples)
+
+    def __iter__(self):
+        return iter(self._couples.values())
+
+    def __contains__(self, couple_id: str) -> bool:
+        return couple_id in self._couples
+
+    def ids(self) -> list[str]:
+        return list(self._couples)
+
+    def suggest(self, couple_id: str, n: int = 3) -> list[str]:
+        """Closest known ids to a mistyped one."""
+        return difflib.get_close_matches(couple_id, list(self._couples), n=n, cutoff=0.5)
+
+    def __getitem__(self, couple_id: str) -> Couple:
+        try:
+            return self._couples[couple_id]
+        except KeyError:
+            raise UnknownCoupleError(couple_id, self.suggest(couple_id)) from None
+
+    def index_of(self, ids) -> np.ndarray:
+        """Integer positions of ids in set order (UnknownCoupleError for the first unknown one)."""
+        if isinstance(ids, str):
+            ids = [ids]
+        out = np.empty(len(ids), dtype=np.intp)
+        idx = self._index
+        for k, cid in enumerate(ids):
+            try:
+                out[k] = idx[cid]
+            except KeyError:
+                raise UnknownCoupleError(cid, self.suggest(cid)) from None
+        return out
+
+    def E_on_root(self, couple: Couple) -> tuple[float, str]:
+        """(effective potential in V on the root scale, root scale key) for one couple."""
+        root, offset = self.scales.resolve(couple.E_scale)
+        return couple.effective_E + offset, root
+
+    @cached_property
+    def arrays(self) -> CoupleArrays:
+        """Numpy columns over all couples (computed once per set)."""
+        cs = list(self._couples.values())
+        roots = [self.E_on_root(c) for c in cs]
+        ln10 = np.log(10.0)
+        return CoupleArrays(
+            ids=tuple(c.id for c in cs),
+            E_root_V=np.array([r[0] for r in roots], dtype=float),
+            scale_root=np.array([r[1] for r in roots], dtype=object),
+            z_ox=np.array([c.charge_ox for c in cs], dtype=float),
+            z_red=np.array([c.charge_red for c in cs], dtype=float),
+            radius_m=np.array([c.radius for c in cs], dtype=float) * ANGSTROM,
+            ln_k_self=np.log(_opt(c.k_self for c in cs)),
+            ln_k_self_sd=_opt(c.k_self_log10_sd for c in cs) * ln10,
+            E_sd_V=_opt(c.E_sd for c in cs),
+            dH_self_J=_opt(c.dH_self for c in cs) * KJ,
+            I0_M=np.array([c.ionic_strength for c in cs], dtype=float),
+            T0_K=np.array([c.temperature for c in cs], dtype=float),
+            medium=np.array([c.medium for c in cs], dtype=object),
+            lambda_in_J=_opt(c.lambda_in for c in cs) * KJ,
+            lambda_total_J=_opt(c.lambda_total for c in cs) * KJ,
+            verified=np.array([c.verified for c in cs], dtype=bool),
+        )

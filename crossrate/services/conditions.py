@@ -1,0 +1,42 @@
+"""Reaction conditions chosen by the user for a prediction."""
+
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from ..core.constants import DEFAULT_Z, STANDARD_TEMPERATURE
+from ..errors import ConditionsError
+
+TEMPERATURE_RANGE_K = (200.0, 400.0)
+IONIC_STRENGTH_MAX_M = 5.0
+
+
+@dataclass(frozen=True)
+class Conditions:
+    """Target conditions. temperature_K in K, ionic_strength_M in mol/L (None: the couples' own when they
+    agree), medium a solvent key (None: the couples' own), Z in M^-1 s^-1, diffusion: apply the cap."""
+
+    temperature_K: float = STANDARD_TEMPERATURE
+    ionic_strength_M: float | None = None
+    medium: str | None = None
+    Z: float = DEFAULT_Z
+    diffusion: bool = True
+    allow_mixed_media: bool = False
+
+    def __post_init__(self):
+        T = self.temperature_K
+        if not (isinstance(T, int | float) and np.isfinite(T)) or not (
+            TEMPERATURE_RANGE_K[0] <= T <= TEMPERATURE_RANGE_K[1]
+        ):
+            raise ConditionsError(
+                f"temperature {T!r} K: expected a finite number from {TEMPERATURE_RANGE_K[0]:g} to {TEMPERATURE_RANGE_K[1]:g} K"
+            )
+        I = self.ionic_strength_M
+        if I is not None and (not np.isfinite(I) or I < 0 or I > IONIC_STRENGTH_MAX_M):
+            raise ConditionsError(f"ionic strength {I!r} M: expected a finite number from 0 to {IONIC_STRENGTH_MAX_M:g} M")
+        if not (np.isfinite(self.Z) and self.Z > 0):
+            raise ConditionsError(f"Z {self.Z!r}: expected a positive finite collision factor in M^-1 s^-1")
+
+    def with_(self, **changes) -> "Conditions":
+        """A copy with some fields changed (validated again)."""
+        return replace(self, **changes)

@@ -1,0 +1,52 @@
+"""Plain-language warnings attached to a prediction: what the user should know before trusting it."""
+
+import numpy as np
+
+from ..core.constants import EV, KJ
+from ..core.regime import DIFFUSION_CONTROL_RATIO
+
+#: |Delta G deg| (eV) beyond which the quadratic Marcus form is flagged as least reliable (common practice).
+LARGE_DRIVING_FORCE_EV = 0.75
+#: Tags that mark a couple whose self-exchange involves a change of spin state.
+SPIN_CHANGE_TAGS = ("spin-change", "spin_change", "spin change")
+
+
+def pair_warnings(ox, red, rc, res, estimated, defaulted) -> tuple[str, ...]:
+    """Warnings for a prediction of ox + red under resolved conditions rc with core result res."""
+    out = []
+    for c in (ox, red):
+        if not c.verified:
+            out.append(f"{c.id}: values not verified against the primary source (recalled or estimated)")
+        if c.k_self is not None:
+            moved = []
+            if abs(c.ionic_strength - rc.ionic_strength_M) > 1e-9:
+                moved.append(f"I {c.ionic_strength:g} -> {rc.ionic_strength_M:g} M")
+            if abs(c.temperature - rc.temperature_K) > 1e-6:
+                how = "Eyring step with dH_self" if c.dH_self is not None else "lambda held fixed"
+                moved.append(f"T {c.temperature:g} -> {rc.temperature_K:g} K ({how})")
+            if c.medium != rc.medium:
+                moved.append(f"medium {c.medium} -> {rc.medium}")
+            if moved:
+                out.append(f"{c.id}: k_self carried from its measurement conditions ({'; '.join(moved)})")
+        if any(t.lower() in SPIN_CHANGE_TAGS for t in c.tags):
+            out.append(
+                f"{c.id}: spin change on electron transfer; the cross relation often fails for such couples"
+            )
+        if c.kappa_el is not None and c.kappa_el < 1.0:
+            out.append(f"{c.id}: marked non-adiabatic (kappa_el = {c.kappa_el:g})")
+    for e in estimated:
+        out.append(f"estimated: {e}")
+    if defaulted:
+        out.append("no uncertainty given, default used for: " + ", ".join(defaulted))
+    if bool(np.asarray(res.diffusion_controlled)):
+        out.append(
+            f"diffusion-controlled (k_act > {DIFFUSION_CONTROL_RATIO:g} k_D): the measured rate would show k_D, "
+            "and would hide an inverted region"
+        )
+    dG0 = float(np.asarray(res.dG0))
+    if abs(dG0) / EV >= LARGE_DRIVING_FORCE_EV:
+        out.append(
+            f"|Delta G deg| = {abs(dG0) / KJ:.0f} kJ/mol ({abs(dG0) / EV:.2f} eV) is large: the cross relation is "
+            "least reliable far from Delta G deg = 0"
+        )
+    return tuple(out)

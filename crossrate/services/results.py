@@ -1,0 +1,126 @@
+"""Result records of the prediction services. Field names and units match the CLI's JSON keys."""
+
+import math
+from dataclasses import asdict, dataclass, fields
+
+
+def json_safe(value):
+    """Recursively turn NaN/inf into None and tuples into lists, so json.dumps emits strict JSON."""
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    if isinstance(value, dict):
+        return {k: json_safe(v) for k, v in value.items()}
+    if isinstance(value, list | tuple):
+        return [json_safe(v) for v in value]
+    if hasattr(value, "item") and callable(value.item):  # numpy scalar
+        return json_safe(value.item())
+    return value
+
+
+class _Record:
+    def to_dict(self) -> dict:
+        """Plain dict of the record (nested records included), JSON-safe (no NaN/inf)."""
+        return json_safe(asdict(self))
+
+
+@dataclass(frozen=True)
+class UsedConditions(_Record):
+    """The conditions and solvent values a prediction actually used.
+
+    temperature_K (K), ionic_strength_M (mol/L), medium (solvent key), Z (M^-1 s^-1),
+    relative_permittivity, viscosity_mPa_s (mPa s), refractive_index, diffusion (cap applied).
+    """
+
+    temperature_K: float
+    ionic_strength_M: float
+    medium: str
+    Z: float
+    relative_permittivity: float
+    viscosity_mPa_s: float
+    refractive_index: float
+    diffusion: bool
+
+
+@dataclass(frozen=True)
+class WorkTerms(_Record):
+    """The four work terms of a cross reaction, kJ/mol."""
+
+    w11: float
+    w22: float
+    w12: float
+    w21: float
+
+
+@dataclass(frozen=True)
+class Prediction(_Record):
+    """One cross-rate prediction for Ox1 + Red2 -> Red1 + Ox2 (oxidant = couple 1, reductant = couple 2).
+
+    Energies in kJ/mol (and eV where named), rate constants as log10 of M^-1 s^-1, ln_f12 and ln_W12
+    dimensionless natural logs. log10_k_obs_95 is the Monte Carlo 95 % interval (None when samples = 0).
+    """
+
+    oxidant: str
+    reductant: str
+    conditions: UsedConditions
+    dG0_kJ_per_mol: float
+    dG0_eV: float
+    dG0_prime_kJ_per_mol: float
+    dG0_prime_eV: float
+    log10_K12: float
+    lambda11_kJ_per_mol: float
+    lambda22_kJ_per_mol: float
+    lambda_kJ_per_mol: float
+    dG_act_kJ_per_mol: float
+    work_kJ_per_mol: WorkTerms
+    ln_f12: float
+    ln_W12: float
+    log10_k11: float
+    log10_k22: float
+    log10_k_act: float
+    log10_k_diff: float
+    log10_k_obs: float
+    log10_k_obs_95: tuple[float, float] | None
+    log10_k_obs_sd_linear: float
+    log10_k_obs_sd_mc: float | None
+    samples: int
+    regime: str
+    regime_explanation: str
+    diffusion_controlled: bool
+    warnings: tuple[str, ...]
+    estimated: tuple[str, ...]
+
+    @property
+    def k_obs(self) -> float:
+        """k_obs in M^-1 s^-1 (may overflow to inf for absurd inputs; log10_k_obs is always finite)."""
+        return 10.0**self.log10_k_obs
+
+
+@dataclass(frozen=True)
+class PredictionTable(_Record):
+    """Vectorized predictions for many pairs: parallel lists, same units as Prediction.
+
+    Entries of a pair that cannot be computed (unrelated scales, mixed media, no self-exchange data) are NaN
+    in the numeric columns and give the reason in `problem` (empty string when the pair is fine).
+    """
+
+    oxidant: tuple[str, ...]
+    reductant: tuple[str, ...]
+    dG0_kJ_per_mol: tuple[float, ...]
+    dG0_prime_kJ_per_mol: tuple[float, ...]
+    lambda_kJ_per_mol: tuple[float, ...]
+    log10_k_act: tuple[float, ...]
+    log10_k_diff: tuple[float, ...]
+    log10_k_obs: tuple[float, ...]
+    log10_k_obs_sd_linear: tuple[float, ...]
+    regime: tuple[str, ...]
+    diffusion_controlled: tuple[bool, ...]
+    problem: tuple[str, ...]
+
+    def __len__(self) -> int:
+        return len(self.oxidant)
+
+    def records(self) -> list[dict]:
+        """One dict per pair (JSON-safe), e.g. for pandas.DataFrame.from_records."""
+        names = [f.name for f in fields(self)]
+        cols = [getattr(self, n) for n in names]
+        return [json_safe(dict(zip(names, row, strict=True))) for row in zip(*cols, strict=True)]
