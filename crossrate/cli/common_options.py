@@ -84,4 +84,6 @@ def load_set(args):
     """The layered CoupleSet: bundled (unless --no-bundled), group, personal, then each --library."""
     from ..library.layers import load_layered
 
-    return load_layered(extra_paths=tuple(getattr(args, "library", []) or []), bundled=not getattr(args, "no_bundled", False))
+    # --library may stand before the command (root option) or after it; both count, root ones first.
+    paths = tuple(getattr(args, "root_library", []) or []) + tuple(getattr(args, "library", []) or [])
+    return load_layered(extra_paths=paths, bundled=not getattr(args, "no_bundled", False))

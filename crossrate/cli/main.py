@@ -43,8 +43,9 @@ def build_parser() -> argparse.ArgumentParser:
         "--library",
         action="append",
         default=[],
+        dest="root_library",
         metavar="PATH",
-        help="extra library file on top of the layered set (repeatable); used by the workbench",
+        help="extra library file on top of the layered set (repeatable); before or after the command",
     )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     for name in COMMAND_MODULES:
@@ -61,7 +62,7 @@ def build_parser() -> argparse.ArgumentParser:
 def _run_tui(args) -> int:
     from ..tui.app import run_app
 
-    return run_app(library_paths=args.library)
+    return run_app(library_paths=args.root_library)
 
 
 def main(argv: list[str] | None = None) -> int:

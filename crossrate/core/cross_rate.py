@@ -1,5 +1,8 @@
 """One vectorized evaluation of a cross reaction Ox1 + Red2 -> Red1 + Ox2: work terms, the Marcus cross
-relation, the barrier form, the diffusion limit and the regime, for arrays of pairs that broadcast."""
+relation, the barrier form, the diffusion limit and the regime, for arrays of pairs that broadcast.
+
+For millions of pairs at one set of conditions, when only ln k_obs (and the regime) is wanted,
+crossrate.core.rate_grid gives the same numbers some 40x faster."""
 
 from dataclasses import dataclass
 

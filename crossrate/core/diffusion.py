@@ -31,10 +31,12 @@ def ln_debye_factor(delta):
     safe = np.where(small, 1.0, d)
     pos = safe > 0
     a = np.abs(safe)
-    # For both signs: delta/(e^delta - 1) = |delta| e^{-max(delta,0)} / (1 - e^{-|delta|}).
-    general = np.log(a) - np.where(pos, safe, 0.0) - np.log1p(-np.exp(-a))
-    # Series near zero: ln(delta/(e^delta-1)) = -delta/2 + delta^2/24 + O(delta^4).
-    series = -0.5 * d + d * d / 24.0
+    # For both signs: delta/(e^delta - 1) = |delta| e^{-max(delta,0)} / (1 - e^{-|delta|}); -expm1(-a) keeps
+    # 1 - e^{-a} to full precision for small a (log1p(-exp(-a)) loses ~1e-11 at a = 1e-6).
+    general = np.log(a) - np.where(pos, safe, 0.0) - np.log(-np.expm1(-a))
+    # Series near zero: ln(delta/(e^delta-1)) = -delta/2 - delta^2/24 + delta^4/2880 - ... (Bernoulli numbers).
+    ds = np.where(small, d, 0.0)  # keeps huge |delta| out of the square (no overflow warning)
+    series = -0.5 * ds - ds * ds / 24.0
     return np.where(small, series, general)
 
 

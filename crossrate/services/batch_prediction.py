@@ -9,6 +9,7 @@ from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
 from .conditions import Conditions
+from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
 from .results import PredictionTable
 from .self_exchange import self_exchange_at
 from .uncertainty import DEFAULT_E_SD_V
@@ -17,10 +18,15 @@ LN10 = float(np.log(10.0))
 
 
 def _as_index(cs: CoupleSet, ids) -> np.ndarray:
-    arr = np.asarray(ids)
-    if arr.dtype.kind in "iu":
-        return arr.astype(np.intp)
-    return cs.index_of(list(arr.tolist()))
+    if isinstance(ids, np.ndarray):
+        if ids.dtype.kind in "iu":
+            return ids.astype(np.intp)
+        return cs.index_of(ids.tolist())
+    ids = ids if isinstance(ids, list | tuple) else list(ids)
+    # A list of str goes straight to the id look-up (np.asarray of 100,000 str would cost ~20 ms).
+    if ids and isinstance(ids[0], int | np.integer) and not isinstance(ids[0], bool):
+        return np.asarray(ids, dtype=np.intp)
+    return cs.index_of(ids)
 
 
 def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None = None, uncertainty=True):
@@ -66,18 +72,27 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
     else:
         I0o, I0r = a.I0_M[ox], a.I0_M[red]
         agree = np.abs(I0o - I0r) <= 1e-9
-        problem[~agree & (problem == "")] = "couples measured at different ionic strengths; give one"
+        problem[~agree & (problem == "")] = "couples measured at different ionic strengths and no ionic strength given"
         I = np.where(agree, I0o, np.nan)
         per_pair_I = True
 
+    groups = None
     if per_pair_I or per_pair_medium:
-        se_ox = self_exchange_at(cs, ox, T, I, eps, ln_Z)
-        se_red = self_exchange_at(cs, red, T, I, eps, ln_Z)
+        pair_medium = cond.medium if cond.medium is not None else a.medium[ox]
+        # Usually a few (I, medium) combinations: carry each couple once per combination, not once per pair.
+        groups = condition_groups(pair_medium, I, n, T)
+    if groups is not None:
+        lnk_ox, sd_ox, lnk_red, sd_red, lnk_by_group = carry_grouped(cs, ox, red, groups, T, ln_Z, cond.medium)
+        bad_I = ~np.isfinite(np.asarray(I, dtype=float))
+        lnk_ox = np.where(bad_I, np.nan, lnk_ox)
+    elif per_pair_I or per_pair_medium:
+        se_ox = self_exchange_at(cs, ox, T, I, eps, ln_Z, medium=pair_medium)
+        se_red = self_exchange_at(cs, red, T, I, eps, ln_Z, medium=pair_medium)
         lnk_ox, sd_ox, lnk_red, sd_red = se_ox.ln_k, se_ox.ln_k_sd, se_red.ln_k, se_red.ln_k_sd
     else:
         # Same conditions for every pair: carry each couple once, then gather.
         allc = np.arange(len(cs))
-        se = self_exchange_at(cs, allc, T, I, eps, ln_Z)
+        se = self_exchange_at(cs, allc, T, I, eps, ln_Z, medium=cond.medium)
         lnk_ox, sd_ox, lnk_red, sd_red = se.ln_k[ox], se.ln_k_sd[ox], se.ln_k[red], se.ln_k_sd[red]
     no_rate = ~(np.isfinite(lnk_ox) & np.isfinite(lnk_red))
     problem[no_rate & (problem == "")] = "no self-exchange rate or reorganization energy"
@@ -108,15 +123,23 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
         if uncertainty:
             sE1 = np.where(np.isfinite(a.E_sd_V[ox]), a.E_sd_V[ox], DEFAULT_E_SD_V)
             sE2 = np.where(np.isfinite(a.E_sd_V[red]), a.E_sd_V[red], DEFAULT_E_SD_V)
-            var = np.zeros(n)
-            for k, (h, s) in enumerate(((1e-4, sE1), (1e-4, sE2), (1e-3, sd_ox), (1e-3, sd_red))):
-                shift = [0.0, 0.0, 0.0, 0.0]
-                shift[k] = h
-                up = run(*shift).ln_k_obs
-                shift[k] = -h
-                dn = run(*shift).ln_k_obs
-                var += ((up - dn) / (2 * h) * s) ** 2
-            sd = np.sqrt(var) / LN10
+            if groups is None and not (per_pair_I or per_pair_medium):
+                groups = [PairGroup(np.arange(n), float(I), cond.medium or "", float(eps), float(visc))]
+                lnk_by_group = [se.ln_k]
+            if groups is not None:
+                # Same central differences on the core fast path (rate_grid), one set of conditions per group.
+                sd = linear_sd_grouped(cs, ox, red, groups, lnk_by_group, (sE1, sE2, sd_ox, sd_red), T, ln_Z,
+                                       cond.diffusion) / LN10
+            else:
+                var = np.zeros(n)
+                for k, (h, s) in enumerate(((1e-4, sE1), (1e-4, sE2), (1e-3, sd_ox), (1e-3, sd_red))):
+                    shift = [0.0, 0.0, 0.0, 0.0]
+                    shift[k] = h
+                    up = run(*shift).ln_k_obs
+                    shift[k] = -h
+                    dn = run(*shift).ln_k_obs
+                    var += ((up - dn) / (2 * h) * s) ** 2
+                sd = np.sqrt(var) / LN10
     bad = problem != ""
     return res, sd, problem, bad
 

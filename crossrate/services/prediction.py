@@ -104,7 +104,9 @@ def _require_same_scale(cs: CoupleSet, ox: Couple, red: Couple):
 def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
     """(evaluate(dE1, dE2, dlnk11, dlnk22) -> CrossRateArrays, SelfExchangeAt of both couples)."""
     a = cs.arrays
-    se = self_exchange_at(cs, [i_ox, i_red], rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.ln_Z)
+    se = self_exchange_at(
+        cs, [i_ox, i_red], rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.ln_Z, medium=rc.medium
+    )
 
     def evaluate(dE1=0.0, dE2=0.0, dlnk11=0.0, dlnk22=0.0) -> CrossRateArrays:
         return cross_rate(
@@ -185,7 +187,9 @@ def predict(
         if se.defaulted_sd[k]:
             defaulted.append(f"k_self of {c.id} (default SD 0.3 in log10)")
     estimated = tuple(
-        f"k_self of {c.id} from its reorganization energy" for c, k in ((ox, 0), (red, 1)) if se.estimated[k]
+        se.description(k) or f"k_self of {c.id} from its reorganization energy"
+        for c, k in ((ox, 0), (red, 1))
+        if se.estimated[k] or se.description(k)
     )
     regime = regime_name(res.regime)
     warnings = rc.warnings + pair_warnings(ox, red, rc, res, estimated, defaulted)

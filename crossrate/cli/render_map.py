@@ -1,0 +1,42 @@
+"""Output forms of `crossrate map`: CSV matrix and JSON, and the Rich progress bar shown on a terminal."""
+
+import csv
+import io
+import sys
+from contextlib import contextmanager
+
+
+def map_csv(rate_map) -> str:
+    """CSV matrix: header `oxidant\\reductant,<ids>`, one row per oxidant, log10 k_obs (log10 M^-1 s^-1)
+    with 4 decimals, empty cells where the pair cannot be computed."""
+    buf = io.StringIO()
+    writer = csv.writer(buf, lineterminator="\n")
+    writer.writerow(["oxidant\\reductant", *rate_map.ids])
+    values = rate_map.log10_k_obs
+    for i, cid in enumerate(rate_map.ids):
+        writer.writerow([cid, *("" if v != v else f"{v:.4f}" for v in values[i].tolist())])
+    return buf.getvalue()
+
+
+@contextmanager
+def progress_bar(stream=None):
+    """Yield a progress(done, total) callback: a Rich bar when stream (default stderr) is a terminal,
+    otherwise a callback that does nothing (pipes and files get no bar)."""
+    stream = stream or sys.stderr
+    isatty = getattr(stream, "isatty", None)
+    if not (isatty and isatty()):
+        yield None
+        return
+    from rich.console import Console
+    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
+
+    with Progress(
+        TextColumn("rate map"), BarColumn(), MofNCompleteColumn(), TimeElapsedColumn(),
+        console=Console(file=stream), transient=True,
+    ) as bar:
+        task = bar.add_task("rows", total=None)
+
+        def callback(done: int, total: int) -> None:
+            bar.update(task, completed=done, total=total)
+
+        yield callback

@@ -1,0 +1,374 @@
+"""Solving the Marcus cross relation backwards: the self-exchange rate or the potential of an unknown couple
+from a measured cross rate with a known partner.
+
+Both solvers use the full relation, k12 = (k11 k22 K12 f12)^(1/2) W12 with f12 and the work terms, after
+removing the diffusion limit (1/k_act = 1/k_obs - 1/k_D). Roots are bracketed and found with Brent's method
+(scipy.optimize.brentq) in log space for k_self and in volts for E.
+
+* k_self: ln k12 rises with ln k11 while lambda12 > |Delta G deg'| (the normal side), so the normal-branch
+  root is unique; a second root exists only when a very fast unknown would bring lambda12 below
+  |Delta G deg'| (the inverted side), and is reported beside it.
+* E: ln k12 is quadratic in Delta G deg', with its maximum at -Delta G deg' = lambda12; a rate below the
+  maximum gives two potentials, one on the normal side (reported first) and one on the inverted side.
+"""
+
+import math
+from dataclasses import dataclass
+
+from ..core.constants import EV, FARADAY, KJ
+from ..errors import ScienceError
+from ..library.couple_set import CoupleSet
+from .conditions import Conditions
+from .measured_check import DEFAULT_MEASURED_LOG10_SD, Z95, require_positive
+from .results import UsedConditions, _Record
+from .solve_setup import LN10, PairSetup, activation_target, lambda_kJ, setup_pair
+
+#: Library limit on |E| (V): a root beyond it is not a potential the data can support.
+E_LIMIT_V = 5.0
+
+
+def _brentq():
+    from scipy.optimize import brentq  # scipy.optimize only when a solve actually runs
+
+    return brentq
+
+
+def _measured_sd(sd):
+    if sd is None:
+        return DEFAULT_MEASURED_LOG10_SD, True
+    return require_positive(sd, "measured SD", "a positive number in log10 units"), False
+
+
+def _check_rate(k) -> float:
+    return require_positive(k, "measured rate", "a rate constant greater than 0 in M^-1 s^-1")
+
+
+# ---- self-exchange rate ------------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class KSelfSolution(_Record):
+    """Apparent self-exchange rate constant of `unknown` at the stated conditions (log10 M^-1 s^-1).
+
+    log10_k_self is None when the measured rate is diffusion-limited; then log10_k_self_lower_bound holds
+    the value that k_act >= k_obs guarantees. log10_k_self_inverted: the second root, if one exists.
+    library_log10_k_self: the library's own value as listed; _at_conditions: carried to these conditions.
+    """
+
+    unknown: str
+    partner: str
+    role: str
+    role_reason: str
+    conditions: UsedConditions
+    k_measured: float
+    k_measured_log10_sd: float
+    measured_sd_defaulted: bool
+    log10_k_self: float | None
+    k_self: float | None
+    log10_k_self_95: tuple[float, float] | None
+    log10_k_self_sd: float | None
+    log10_k_self_lower_bound: float | None
+    log10_k_self_inverted: float | None
+    lambda_unknown_kJ_per_mol: float | None
+    library_log10_k_self: float | None
+    library_log10_k_self_at_conditions: float | None
+    dG0_kJ_per_mol: float
+    log10_k_act: float
+    log10_k_diff: float
+    diffusion_limited: bool
+    explanation: str
+    warnings: tuple[str, ...]
+
+
+def _k_self_roots(s: PairSetup, target: float, **others) -> tuple[float, float | None]:
+    """(normal-branch root, inverted-branch root or None) of ln k_act(ln k11) = target, ln k11 in ln M^-1 s^-1."""
+    brentq = _brentq()
+    RT = s.RT
+    res0 = s.evaluate(ln_k_unknown=0.0, **others)
+    w_u = float(res0.w11 if s.role == "oxidant" else res0.w22)
+    lam_p = float(res0.lambda22 if s.role == "oxidant" else res0.lambda11)
+    dGp = float(res0.dG0_prime)
+    ln_Z = s.rc.ln_Z
+    top = ln_Z - w_u / RT - 1e-9  # lambda_unknown -> 0
+    # Over lambda the barrier (lambda + dG')^2 / 4 lambda is lowest at lambda = |dG'| (either sign of dG'),
+    # so k12 peaks where lambda12 = |Delta G deg'|, i.e. at this lambda of the unknown:
+    lam_star = 2.0 * abs(dGp) - lam_p
+    peak = ln_Z - (w_u + lam_star / 4.0) / RT if lam_star > 0 else top
+
+    def f(y):
+        return s.ln_k_act(ln_k_unknown=y, **others) - target
+
+    if f(peak) < 0:
+        raise ScienceError(
+            f"the measured rate is faster than the cross relation allows with {s.partner.id} for any self-exchange "
+            f"rate of {s.unknown.id} (at most 10^{(f(peak) + target) / LN10:.2f} M^-1 s^-1 activation-controlled): "
+            "an outer-sphere path with these potentials cannot explain it"
+        )
+    lo = peak - 10.0
+    while f(lo) > 0:
+        lo -= 10.0
+        if lo < -700.0:
+            raise ScienceError("no self-exchange rate above 1e-300 M^-1 s^-1 reproduces so slow a rate")
+    normal = brentq(f, lo, peak, xtol=1e-13, rtol=1e-15, maxiter=200)
+    inverted = None
+    if peak < top and f(top) < 0 < f(peak):
+        inverted = brentq(f, peak, top, xtol=1e-13, rtol=1e-15, maxiter=200)
+    return normal, inverted
+
+
+def solve_k_self(
+    couple_set: CoupleSet,
+    unknown: str,
+    partner: str,
+    k_measured: float,
+    k_measured_log10_sd: float | None = None,
+    role: str = "auto",
+    conditions: Conditions | None = None,
+) -> KSelfSolution:
+    """Apparent k_self of `unknown` from its measured cross rate with `partner` (Marcus cross relation, full).
+
+    Args:
+        couple_set: the loaded couples; unknown: id whose E, charges and radius are used (its own k_self is
+            ignored and shown beside); partner: id of a couple with a known k_self (or lambda).
+        k_measured: measured cross rate constant, M^-1 s^-1; k_measured_log10_sd: its SD (log10), None for
+            the default DEFAULT_MEASURED_LOG10_SD.
+        role: the unknown's role, 'oxidant', 'reductant' or 'auto' (downhill with the library potentials).
+        conditions: conditions of the measurement.
+
+    Returns:
+        KSelfSolution (log10 M^-1 s^-1, kJ/mol). ScienceError when the rate is at or above k_D or faster
+        than any k_self allows.
+    """
+    k_measured = _check_rate(k_measured)
+    sd, defaulted = _measured_sd(k_measured_log10_sd)
+    s = setup_pair(couple_set, unknown, partner, role, conditions)
+    ln_meas = math.log(k_measured)
+    target, limited = activation_target(s, ln_meas)
+    res = s.evaluate(ln_k_unknown=0.0)
+    lib = s.unknown.k_self
+    lib_at = s.ln_k_unknown / LN10 if (lib is not None and math.isfinite(s.ln_k_unknown)) else None
+    common = dict(
+        unknown=s.unknown.id, partner=s.partner.id, role=s.role, role_reason=s.role_reason,
+        conditions=s.used_conditions(), k_measured=float(k_measured), k_measured_log10_sd=sd,
+        measured_sd_defaulted=defaulted, library_log10_k_self=math.log10(lib) if lib else None,
+        library_log10_k_self_at_conditions=lib_at, dG0_kJ_per_mol=float(res.dG0) / KJ,
+        log10_k_act=target / LN10, log10_k_diff=s.ln_k_diff / LN10, diffusion_limited=limited,
+        warnings=s.warnings,
+    )
+    if limited:
+        # k_act >= k_obs always, so solving with k_act = k_obs (lowered by the measurement spread) bounds k_self.
+        bound, _ = _k_self_roots(s, ln_meas - Z95 * sd * LN10)
+        return KSelfSolution(
+            log10_k_self=None, k_self=None, log10_k_self_95=None, log10_k_self_sd=None,
+            log10_k_self_lower_bound=bound / LN10, log10_k_self_inverted=None, lambda_unknown_kJ_per_mol=None,
+            explanation=(
+                f"the measured rate is at the diffusion limit (k_D = 10^{s.ln_k_diff / LN10:.2f} M^-1 s^-1): "
+                "it fixes k_D, not the activation step, so no k_self can be backed out; k_self is at least "
+                f"10^{bound / LN10:.2f} M^-1 s^-1"
+            ),
+            **common,
+        )
+    y, y_inv = _k_self_roots(s, target)
+    # First-order propagation: re-solve with each input nudged (log10 k_meas, E of both, ln k of the partner).
+    nudges = (
+        ("k", 1e-4 * LN10, sd * LN10),
+        ("Eu", 1e-4, s.E_unknown_sd),
+        ("Ep", 1e-4, s.E_partner_sd),
+        ("lp", 1e-3, s.ln_k_partner_sd),
+    )
+    var = 0.0
+    for name, h, spread in nudges:
+        vals = []
+        for sign in (1.0, -1.0):
+            if name == "k":
+                t, _ = activation_target(s, ln_meas + sign * h)
+                vals.append(_k_self_roots(s, t)[0])
+            else:
+                key = {"Eu": "E_unknown", "Ep": "E_partner", "lp": "ln_k_partner"}[name]
+                base = {"Eu": s.E_unknown, "Ep": s.E_partner, "lp": s.ln_k_partner}[name]
+                vals.append(_k_self_roots(s, target, **{key: base + sign * h})[0])
+        var += ((vals[0] - vals[1]) / (2.0 * h) * spread) ** 2
+    sd_y = math.sqrt(var) / LN10
+    ly = y / LN10
+    text = (
+        f"apparent k_self of {s.unknown.id} = 10^{ly:.2f} M^-1 s^-1 at these conditions, from k12 with "
+        f"{s.partner.id} through the full cross relation (f12 and work terms)"
+    )
+    if lib_at is not None:
+        text += f"; the library's value carried here is 10^{lib_at:.2f} ({ly - lib_at:+.2f} in log10)"
+    if y_inv is not None:
+        text += (
+            f"; a second root, 10^{y_inv / LN10:.2f}, would put the pair in the inverted region and is "
+            "shown for completeness only"
+        )
+    return KSelfSolution(
+        log10_k_self=ly, k_self=10.0**ly, log10_k_self_95=(ly - Z95 * sd_y, ly + Z95 * sd_y), log10_k_self_sd=sd_y,
+        log10_k_self_lower_bound=None, log10_k_self_inverted=None if y_inv is None else y_inv / LN10,
+        lambda_unknown_kJ_per_mol=lambda_kJ(s, y), explanation=text, **common,
+    )
+
+
+# ---- potential ---------------------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class PotentialSolution(_Record):
+    """Potentials of `unknown` (its library field E, V on E_scale) reproducing the measured rate.
+
+    E_V: roots, normal side first; E_regime: 'normal'/'inverted' per root; E_V_95: (low, high) per root;
+    supported: whether the data can support each root; E_at_maximum_V: where the rate would be highest.
+    """
+
+    unknown: str
+    partner: str
+    role: str
+    role_reason: str
+    conditions: UsedConditions
+    k_measured: float
+    k_measured_log10_sd: float
+    measured_sd_defaulted: bool
+    E_V: tuple[float, ...]
+    E_scale: str
+    E_regime: tuple[str, ...]
+    E_V_95: tuple[tuple[float, float], ...]
+    E_sd_V: tuple[float, ...]
+    supported: tuple[bool, ...]
+    E_at_maximum_V: float
+    lambda_kJ_per_mol: float
+    library_E_V: float
+    log10_k_act: float
+    log10_k_diff: float
+    log10_k_max: float
+    diffusion_limited: bool
+    explanation: str
+    warnings: tuple[str, ...]
+
+
+def _E_roots(s: PairSetup, target: float, **others) -> tuple[float, float, float, float]:
+    """(normal root, inverted root, E at the maximum, lambda12 J/mol) of ln k_act(E_unknown) = target."""
+    brentq = _brentq()
+    r = s.evaluate(**others)
+    lam = float(r.lambda12)
+    w12, w21 = float(r.w12), float(r.w21)
+    # Maximum of ln k_act at Delta G deg' = -lambda12, i.e. Delta G deg = -lambda12 + w12 - w21 (barrier w12).
+    E_star = s.E_from_dG0(-lam + w12 - w21)
+    ln_max = s.ln_k_act(E_unknown=E_star, **others)
+    if target > ln_max + 1e-9:
+        raise ScienceError(
+            f"the measured rate is faster than the cross relation allows with {s.partner.id} for any potential of "
+            f"{s.unknown.id} (at most 10^{ln_max / LN10:.2f} M^-1 s^-1 activation-controlled, at the activationless "
+            "point): an outer-sphere path with these self-exchange rates cannot explain it"
+        )
+
+    def f(E):
+        return s.ln_k_act(E_unknown=E, **others) - target
+
+    # Less driving force is the normal side: lower E for an oxidant, higher E for a reductant.
+    toward_normal = -1.0 if s.role == "oxidant" else 1.0
+    roots = []
+    for direction in (toward_normal, -toward_normal):
+        step = 0.25
+        far = E_star + direction * step
+        while f(far) > 0:
+            step *= 2.0
+            far = E_star + direction * step
+            if step > 64.0:
+                raise ScienceError("no potential within 64 V reproduces the measured rate")
+        a, b = sorted((E_star, far))
+        roots.append(E_star if f(E_star) <= 0 else brentq(f, a, b, xtol=1e-14, rtol=1e-15, maxiter=200))
+    return roots[0], roots[1], E_star, lam
+
+
+def solve_potential(
+    couple_set: CoupleSet,
+    unknown: str,
+    partner: str,
+    k_measured: float,
+    k_measured_log10_sd: float | None = None,
+    role: str = "auto",
+    conditions: Conditions | None = None,
+) -> PotentialSolution:
+    """The potential E of `unknown` that reproduces a measured cross rate with `partner` (two roots).
+
+    Same arguments as solve_k_self; the unknown's own k_self (or lambda) is used and its library E only
+    decides the direction when role is 'auto'. Returns PotentialSolution with E in V on the unknown's own
+    E_scale (the library field E, ground state when the couple is an excited state's).
+    """
+    k_measured = _check_rate(k_measured)
+    sd, defaulted = _measured_sd(k_measured_log10_sd)
+    s = setup_pair(couple_set, unknown, partner, role, conditions)
+    if not math.isfinite(s.ln_k_unknown):
+        raise ScienceError(
+            f"{s.unknown.id} has no k_self and no reorganization energy: solving for its potential needs one"
+        )
+    ln_meas = math.log(k_measured)
+    target, limited = activation_target(s, ln_meas)
+    E_n, E_i, E_star, lam = _E_roots(s, target)
+    nudges = (
+        ("k", 1e-4 * LN10, sd * LN10, None),
+        ("Ep", 1e-4, s.E_partner_sd, "E_partner"),
+        ("lp", 1e-3, s.ln_k_partner_sd, "ln_k_partner"),
+        ("lu", 1e-3, s.ln_k_unknown_sd, "ln_k_unknown"),
+    )
+    var = [0.0, 0.0]
+    near_peak = False
+    for _name, h, spread, key in nudges:
+        vals = []
+        for sign in (1.0, -1.0):
+            try:
+                if key is None:
+                    t, _ = activation_target(s, ln_meas + sign * h)
+                    vals.append(_E_roots(s, t)[:2])
+                else:
+                    vals.append(_E_roots(s, target, **{key: getattr(s, key) + sign * h})[:2])
+            except ScienceError:
+                near_peak = True  # a nudge pushes the rate past the maximum: the roots merge there
+                vals.append((E_star, E_star))
+        for j in range(2):
+            var[j] += ((vals[0][j] - vals[1][j]) / (2.0 * h) * spread) ** 2
+    sds = tuple(math.sqrt(v) for v in var)
+    own = tuple(s.to_own_scale(E, couple_set.scales) for E in (E_n, E_i))
+    E_star_own = s.to_own_scale(E_star, couple_set.scales)
+    ok_range = tuple(abs(E) <= E_LIMIT_V for E in own)
+    band = 2.0 * math.sqrt(lam * s.RT) / FARADAY  # activationless band half-width: 1 RT of intrinsic barrier
+    merged = near_peak or abs(E_n - E_i) <= 2.0 * band
+    supported = (ok_range[0], ok_range[1] and merged)
+    text = _potential_text(s, own, E_star_own, lam, band, merged, limited, ok_range)
+    return PotentialSolution(
+        unknown=s.unknown.id, partner=s.partner.id, role=s.role, role_reason=s.role_reason,
+        conditions=s.used_conditions(), k_measured=float(k_measured), k_measured_log10_sd=sd,
+        measured_sd_defaulted=defaulted, E_V=own, E_scale=s.unknown.E_scale, E_regime=("normal", "inverted"),
+        E_V_95=tuple((E - Z95 * d, E + Z95 * d) for E, d in zip(own, sds, strict=True)), E_sd_V=sds,
+        supported=supported, E_at_maximum_V=E_star_own, lambda_kJ_per_mol=lam / KJ, library_E_V=s.unknown.E,
+        log10_k_act=target / LN10, log10_k_diff=s.ln_k_diff / LN10,
+        log10_k_max=s.ln_k_act(E_unknown=E_star) / LN10, diffusion_limited=limited, explanation=text,
+        warnings=s.warnings,
+    )
+
+
+def _potential_text(s, own, E_star, lam, band, merged, limited, ok_range) -> str:
+    u = s.unknown
+    parts = [
+        f"two potentials of {u.id} give this rate with {s.partner.id}: E = {own[0]:.3f} V (normal side) and "
+        f"E = {own[1]:.3f} V (inverted side) vs {u.E_scale}; the rate would peak at E = {E_star:.3f} V, "
+        f"where -Delta G deg' = lambda12 = {lam / EV:.2f} eV"
+    ]
+    if merged:
+        parts.append(
+            "the measured rate is close to the activationless maximum, so the two roots lie within the "
+            f"measurement's reach of each other (+-{band:.2f} V): the data fix E only near {E_star:.3f} V"
+        )
+    else:
+        parts.append(
+            "the data support the normal-side root; the inverted-side root would need -Delta G deg' beyond "
+            "lambda12, where bimolecular rates are usually hidden by the diffusion plateau; a single rate cannot "
+            "tell the two apart, so take it only with independent evidence for so strong a driving force"
+        )
+    if not all(ok_range):
+        bad = [f"{E:.2f} V" for E, ok in zip(own, ok_range, strict=True) if not ok]
+        parts.append(f"{' and '.join(bad)} lies beyond +-{E_LIMIT_V:g} V and is not a potential the data can support")
+    if limited:
+        parts.append(
+            "the measured rate is at the diffusion limit: it bounds the potential (at least this much driving "
+            "force) rather than fixing it"
+        )
+    parts.append(f"the library lists E = {u.E:.3f} V for {u.id}")
+    return "; ".join(parts)

@@ -1,0 +1,131 @@
+"""The couple editor: add, edit or duplicate a couple in a chosen library file, through the safe writer.
+
+Nothing is written before the user confirms; a file changed on disk is refused (nothing written) and the
+user is offered a reload, with the form kept as typed. Leaving with unsaved edits asks first.
+"""
+
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.screen import Screen
+from textual.widgets import Footer, Input, Label, Select, Static
+
+from ...errors import ConflictError, CrossrateError
+from ..widgets.couple_form import CoupleForm
+from .confirm_screen import ConfirmScreen
+
+
+class EditorScreen(Screen[str | None]):
+    """mode: 'add', 'edit' or 'duplicate'. Dismisses with the id written (None when nothing was)."""
+
+    CSS_PATH = "editor.tcss"
+    BINDINGS = [
+        Binding("ctrl+s", "save", "save", priority=True),
+        Binding("escape", "cancel", "close"),
+    ]
+
+    def __init__(self, mode: str, couple, files: list[tuple[str, str]], get_set, reload_library):
+        """get_set() -> the current CoupleSet (its file hashes are what writes are checked against);
+        reload_library() reads the files again."""
+        super().__init__()
+        self.mode, self.couple, self.files = mode, couple, files
+        self.get_set, self.reload_library = get_set, reload_library
+        self._written = False
+
+    def compose(self) -> ComposeResult:
+        c = self.couple
+        title = {"add": "new couple", "edit": f"edit {c.id if c else ''}", "duplicate": f"copy of {c.id if c else ''}"}
+        yield Static(f"{title[self.mode]}   ctrl+s save (asks first)  esc close   * required", id="editor-title")
+        options = [(f"{layer}: {path}", path) for path, layer in self.files]
+        start = c.origin.path if c is not None and c.origin is not None and c.origin.path in dict(self.files) else None
+        yield Label("write to file")
+        yield Select(options, value=start if start else (options[0][1] if options else Select.NULL),
+                     allow_blank=not options, id="editor-file", compact=True, disabled=self.mode == "edit")
+        new_id = c.id if (c and self.mode == "edit") else (f"{c.id}-copy" if c else "")
+        yield CoupleForm(c if self.mode != "add" else None, new_id, id="form")
+        yield Static("", id="editor-message", markup=False)
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one("#f-id", Input).focus()
+
+    @property
+    def dirty(self) -> bool:
+        """Unsaved edits: the form differs from what it opened with and was not written."""
+        return not self._written and self.query_one(CoupleForm).is_dirty()
+
+    def on_couple_form_dirty(self) -> None:
+        self.app.unsaved_edits = self.dirty
+
+    def _message(self, text: str) -> None:
+        self.query_one("#editor-message", Static).update(text)
+
+    @property
+    def target(self) -> str | None:
+        v = self.query_one("#editor-file", Select).value
+        return None if v is Select.NULL else str(v)
+
+    def action_save(self) -> None:
+        form = self.query_one(CoupleForm)
+        problems = form.problems()
+        path = self.target
+        if path is None:
+            problems.append("file: choose the library file to write to")
+        if problems:
+            self._message("! not saved; fix first:\n" + "\n".join(problems))
+            return
+        cid = form.couple_id
+        kind = "update" if self.mode == "edit" else "add"
+        old = self.couple.id if (self.couple is not None and kind == "update") else None
+        if old is not None and old != cid:
+            question = f"Rename couple {old} to {cid} and write its fields in {path}?"
+        else:
+            question = f"{'Replace' if old else 'Add'} couple {cid} in {path}?"
+        question += " Only this couple's table changes; comments and other couples stay as they are."
+
+        def answered(yes: bool | None) -> None:
+            if yes:
+                self._write(kind, path, cid, form.values())
+
+        self.app.push_screen(ConfirmScreen(question, "write", "not now"), answered)
+
+    def _write(self, kind: str, path: str, cid: str, values: dict) -> None:
+        from ..library_access import file_sha256, write_couple
+
+        old = self.couple.id if (self.couple is not None and self.mode == "edit") else None
+        cs = self.get_set()
+        try:
+            write_couple(kind, cs, path, cid, values, file_sha256(cs, path), old_id=old)
+        except ConflictError as exc:
+            self._conflict(path, str(exc))
+            return
+        except CrossrateError as exc:
+            self._message(f"! not saved: {exc}")
+            return
+        self._written = True
+        self.app.unsaved_edits = False
+        self.dismiss(cid)
+
+    def _conflict(self, path: str, detail: str) -> None:
+        self._message(f"! refused: {path} changed on disk since it was read; nothing was written.\n{detail}")
+
+        def answered(yes: bool | None) -> None:
+            if yes:
+                self.reload_library()
+                self._message(f"{path} reloaded; your form is as you left it. ctrl+s to write again.")
+
+        self.app.push_screen(
+            ConfirmScreen(f"{path} changed on disk. Reload it (your form stays as typed)?", "reload", "not now"),
+            answered,
+        )
+
+    def action_cancel(self) -> None:
+        if not self.dirty:
+            self.dismiss(None)
+            return
+
+        def answered(yes: bool | None) -> None:
+            if yes:
+                self.app.unsaved_edits = False
+                self.dismiss(None)
+
+        self.app.push_screen(ConfirmScreen("Discard the unsaved edits in this form?", "discard", "keep editing"), answered)

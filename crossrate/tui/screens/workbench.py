@@ -1,0 +1,127 @@
+"""The workbench screen: pair bar, view tabs and the six views; it wires user actions to the services."""
+
+from textual import on, work
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.screen import Screen
+from textual.widgets import ContentSwitcher, Footer, Input, Static
+
+from ..widgets.check_panel import CheckPanel
+from ..widgets.conditions_form import ConditionsForm
+from ..widgets.couple_detail import CoupleDetail
+from ..widgets.couple_table import CoupleTable
+from ..widgets.energy_plot import EnergyPlot
+from ..widgets.heat_map import HeatMap
+from ..widgets.pair_bar import PairBar
+from ..widgets.prediction_panel import PredictionPanel
+from ..widgets.rate_curve_plot import RateCurvePlot
+from ..widgets.view_tabs import VIEWS, ViewTabs
+from .workbench_editing import WorkbenchEditing
+from .workbench_logic import WorkbenchLogic
+
+
+#: Pause between the first refresh and the start of the library loader, s (see on_mount).
+FIRST_PAINT_GRACE_S = 0.08
+
+
+class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
+    """Main screen. The state and the calls to services live in WorkbenchLogic, library edits in
+    WorkbenchEditing."""
+
+    CSS_PATH = "workbench.tcss"
+    BINDINGS = [
+        *(Binding(key, f"view('{vid}')", title, show=False) for vid, key, title in VIEWS),
+        Binding("o", "set_oxidant", "oxidant"),
+        Binding("r", "set_reductant", "reductant"),
+        Binding("x", "swap", "swap"),
+        Binding("slash", "search", "search"),
+        Binding("u", "cycle_unit", "units"),
+        Binding("e", "edit", "edit"),
+        Binding("a", "add", "add", show=False),
+        Binding("d", "duplicate", "duplicate", show=False),
+        Binding("delete", "delete", "delete", show=False),
+        Binding("ctrl+r", "reload", "reload", show=False),
+        Binding("question_mark,f1", "help", "help"),
+        Binding("escape", "leave_input", show=False),
+        Binding("enter", "toggle_detail", "detail", show=False),
+    ]
+
+    def compose(self) -> ComposeResult:
+        yield PairBar(id="pair-bar")
+        yield ViewTabs(id="view-tabs")
+        with ContentSwitcher(initial="couples", id="views"):
+            with Vertical(id="couples"):
+                yield Input(placeholder="filter: id, name, tag or medium   (/ to search, esc to leave)", id="search", compact=True)
+                with Horizontal(id="couples-body"):
+                    yield CoupleTable(id="table")
+                    with VerticalScroll(id="detail-scroll"):
+                        yield CoupleDetail("Loading the library...", id="detail", markup=False)
+            with Horizontal(id="predict"):
+                yield ConditionsForm(id="conditions")
+                with VerticalScroll(id="prediction-scroll"):
+                    yield PredictionPanel(id="prediction")
+            yield RateCurvePlot(id="curve")
+            yield EnergyPlot(id="energy")
+            yield CheckPanel(id="check")
+            with Vertical(id="map"):
+                yield HeatMap(id="heat")
+        yield Static("", id="status", markup=False)
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one(ViewTabs).show("couples", self.unit)
+        self.query_one(PairBar).show(None, None, None)
+        self.query_one(CoupleTable).focus()
+        # Load after the first frame is on the terminal: the loader imports numpy and scipy in a thread, and
+        # holding the GIL for that would delay the driver's writer thread (and so the first paint) by ~0.5 s.
+        self.call_after_refresh(lambda: self.set_timer(FIRST_PAINT_GRACE_S, self.start_loading))
+
+    def on_resize(self, event) -> None:
+        self.set_class(event.size.width < 100, "-narrow")
+
+    # -- workers ----------------------------------------------------------------------------------------
+    @work(thread=True, exclusive=True, group="load")
+    def start_loading(self) -> None:
+        cs, problem = self.app.load_couple_set()
+        self.app.call_from_thread(self.library_loaded, cs, problem)
+
+    @work(thread=True, exclusive=True, group="mc")
+    def run_interval(self, key, ox: str, red: str, cond) -> None:
+        p = self.service_predict(ox, red, cond, samples=20000)
+        self.app.call_from_thread(self.interval_ready, key, p)
+
+    @work(thread=True, exclusive=True, group="map")
+    def run_map(self, ids, cond, note: str) -> None:
+        values, problem = self.service_map(ids, cond)
+        self.app.call_from_thread(self.map_ready, ids, values, problem or note)
+
+    # -- events -----------------------------------------------------------------------------------------
+    @on(Input.Changed, "#search")
+    def _search_changed(self, event: Input.Changed) -> None:
+        self.apply_filter(event.value)
+
+    @on(Input.Submitted, "#search")
+    def _search_done(self) -> None:
+        self.query_one(CoupleTable).focus()
+
+    @on(CoupleTable.Highlighted)
+    def _highlighted(self, event: CoupleTable.Highlighted) -> None:
+        self.show_detail(event.couple_id)
+
+    @on(ConditionsForm.Changed)
+    def _conditions(self, event: ConditionsForm.Changed) -> None:
+        self.conditions = event.conditions
+        self.recompute()
+        if self.view == "map":
+            self.refresh_map()
+
+    @on(CheckPanel.Entered)
+    def _measured(self, event: CheckPanel.Entered) -> None:
+        self.measured = (event.k, event.log10_sd) if event.k is not None else None
+        self.refresh_check()
+        self.refresh_curves()
+
+    @on(HeatMap.Chosen)
+    def _cell_chosen(self, event: HeatMap.Chosen) -> None:
+        self.set_pair(event.oxidant, event.reductant)

@@ -1,0 +1,100 @@
+"""Conditions editable in place: each field is checked as it is typed; a bad value is marked and explained,
+and only a complete, valid set of conditions is passed on (so the last good prediction stays)."""
+
+from textual.app import ComposeResult
+from textual.containers import Vertical
+from textual.message import Message
+from textual.widgets import Checkbox, Input, Label, Select, Static
+
+from ...errors import ConditionsError
+from .plain_checkbox import PlainCheckbox
+
+OWN = "couples' own"
+
+
+class ConditionsForm(Vertical):
+    """Temperature, ionic strength, medium, Z, diffusion cap and mixed media."""
+
+    class Changed(Message):
+        """Valid conditions were entered."""
+
+        def __init__(self, conditions):
+            self.conditions = conditions
+            super().__init__()
+
+    def compose(self) -> ComposeResult:
+        yield Label("temperature (K)")
+        yield Input("298.15", id="cond-T", compact=True)
+        yield Label("ionic strength (M)")
+        yield Input("", placeholder=OWN, id="cond-I", compact=True)
+        yield Label("medium")
+        yield Select([], prompt=OWN, id="cond-medium", compact=True)
+        yield Label("Z (M⁻¹ s⁻¹)")
+        yield Input("1e11", id="cond-Z", compact=True)
+        yield PlainCheckbox("diffusion cap", True, id="cond-diffusion", compact=True)
+        yield PlainCheckbox("allow mixed media", False, id="cond-mixed", compact=True)
+        yield Static("", id="cond-message", markup=False)
+
+    def set_media(self, keys: list[str]) -> None:
+        self.query_one("#cond-medium", Select).set_options((k, k) for k in keys)
+
+    def _number(self, wid: str, label: str, unit: str, blank_ok: bool) -> float | None:
+        box = self.query_one(wid, Input)
+        s = box.value.strip()
+        if not s and blank_ok:
+            return None
+        try:
+            v = float(s)
+        except ValueError:
+            box.add_class("-bad")
+            raise ConditionsError(f"{label}: {s!r} is not a number ({unit})") from None
+        return v
+
+    def read(self):
+        """The conditions in the form (services.conditions.Conditions); ConditionsError when one is bad."""
+        from ...services.conditions import Conditions
+
+        for box in self.query(Input):
+            box.remove_class("-bad")
+        T = self._number("#cond-T", "temperature", "K", False)
+        I = self._number("#cond-I", "ionic strength", "M", True)
+        Z = self._number("#cond-Z", "Z", "M^-1 s^-1", False)
+        medium = self.query_one("#cond-medium", Select).value
+        try:
+            return Conditions(
+                temperature_K=T,
+                ionic_strength_M=I,
+                medium=None if medium is Select.NULL else str(medium),
+                Z=Z,
+                diffusion=self.query_one("#cond-diffusion", Checkbox).value,
+                allow_mixed_media=self.query_one("#cond-mixed", Checkbox).value,
+            )
+        except ConditionsError as exc:
+            text = str(exc)
+            wid = "#cond-T" if text.startswith("temperature") else "#cond-I" if text.startswith("ionic") else "#cond-Z"
+            self.query_one(wid, Input).add_class("-bad")
+            raise
+
+    def _changed(self) -> None:
+        msg = self.query_one("#cond-message", Static)
+        try:
+            cond = self.read()
+        except ConditionsError as exc:
+            msg.update(f"! {exc}; the last good prediction is kept")
+            msg.add_class("-bad")
+            return
+        msg.update("")
+        msg.remove_class("-bad")
+        self.post_message(self.Changed(cond))
+
+    def on_input_changed(self, event: Input.Changed) -> None:
+        event.stop()
+        self._changed()
+
+    def on_select_changed(self, event: Select.Changed) -> None:
+        event.stop()
+        self._changed()
+
+    def on_checkbox_changed(self, event: Checkbox.Changed) -> None:
+        event.stop()
+        self._changed()

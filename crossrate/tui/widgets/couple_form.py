@@ -1,0 +1,127 @@
+"""The couple form: one labelled field per library field (units shown), each checked as it is typed."""
+
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, VerticalScroll
+from textual.message import Message
+from textual.widgets import Input, Label, Static
+
+from ...library.couple import Couple
+from ...library.schema import FIELD_SPECS, parse_field_text
+
+
+def field_text(c: Couple | None, name: str) -> str:
+    """What the form shows for a field of a couple (empty when absent)."""
+    if c is None:
+        return ""
+    v = getattr(c, name)
+    if v is None or v == () or v == "":
+        return "false" if name == "verified" else ""
+    if name == "bonds":
+        parts = [f"{{count = {b.count}, delta_d = {b.delta_d!r}, f_ox = {b.f_ox!r}, f_red = {b.f_red!r}}}" for b in v]
+        return "[" + ", ".join(parts) + "]"
+    if name == "tags":
+        return ", ".join(v)
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, float):
+        if v != 0 and not (1e-3 <= abs(v) < 1e5):
+            mant, exp = f"{v:.15e}".split("e")
+            return f"{mant.rstrip('0').rstrip('.')}e{int(exp)}"
+        return repr(v)
+    return str(v)
+
+
+def check_text_value(name: str, text: str):
+    """(TOML value, None) or (None, message) for what the user typed into one field."""
+    from ...library.validation import check_field
+
+    try:
+        value = parse_field_text(name, text)
+    except ValueError as exc:
+        return None, str(exc)
+    if value is None:
+        return None, None
+    _converted, msg = check_field(name, value)
+    return (None, msg) if msg else (value, None)
+
+
+class CoupleForm(VerticalScroll):
+    """Fields of one couple. `values()` gives the raw table to write; `problems()` what is wrong.
+    Up and down move between fields (as do tab and shift+tab)."""
+
+    BINDINGS = [
+        Binding("down", "app.focus_next", "next field", show=False),
+        Binding("up", "app.focus_previous", "previous field", show=False),
+    ]
+
+    class Dirty(Message):
+        """A field changed (the form may or may not differ from what it opened with: see is_dirty)."""
+
+    def __init__(self, couple: Couple | None, new_id: str, **kwargs):
+        super().__init__(**kwargs)
+        self._couple = couple
+        self._new_id = new_id
+        self._initial = {"id": new_id, **{spec.name: field_text(couple, spec.name) for spec in FIELD_SPECS}}
+
+    def compose(self) -> ComposeResult:
+        with Horizontal(classes="form-row"):
+            yield Label("id", classes="form-label")
+            yield Input(self._new_id, id="f-id", compact=True)
+        yield Static("", id="m-id", classes="form-message", markup=False)
+        for spec in FIELD_SPECS:
+            with Horizontal(classes="form-row"):
+                mark = "*" if spec.required and not spec.library_default else " "
+                yield Label(f"{mark}{spec.label}", classes="form-label")
+                yield Input(field_text(self._couple, spec.name), id=f"f-{spec.name}", compact=True,
+                            placeholder=spec.help[:60], tooltip=spec.help)
+            yield Static("", id=f"m-{spec.name}", classes="form-message", markup=False)
+
+    def _field_of(self, input_id: str) -> str:
+        return input_id[2:]
+
+    def on_input_changed(self, event: Input.Changed) -> None:
+        event.stop()
+        if event.input.id:
+            self._mark(self._field_of(event.input.id), event.value)
+        self.post_message(self.Dirty())
+
+    def _mark(self, name: str, text: str) -> str | None:
+        if name == "id":
+            from ...library.validation import bad_id_message
+
+            msg = bad_id_message(text.strip())
+        else:
+            _v, msg = check_text_value(name, text)
+        box = self.query_one(f"#f-{name}", Input)
+        note = self.query_one(f"#m-{name}", Static)
+        box.set_class(bool(msg), "-bad")
+        note.update(f"! {msg}" if msg else "")
+        note.display = bool(msg)
+        return msg
+
+    def is_dirty(self) -> bool:
+        """True when any field differs from what the form opened with."""
+        return any(self.query_one(f"#f-{name}", Input).value != text for name, text in self._initial.items())
+
+    @property
+    def couple_id(self) -> str:
+        return self.query_one("#f-id", Input).value.strip()
+
+    def values(self) -> dict:
+        """The fields the user filled in, as TOML values (empty fields left out)."""
+        out = {}
+        for spec in FIELD_SPECS:
+            v, msg = check_text_value(spec.name, self.query_one(f"#f-{spec.name}", Input).value)
+            if msg is None and v is not None:
+                out[spec.name] = v
+        return out
+
+    def problems(self) -> list[str]:
+        """Every field's problem as 'field: message' (empty when the form is fine field by field)."""
+        out = []
+        for name in ("id", *(s.name for s in FIELD_SPECS)):
+            msg = self._mark(name, self.query_one(f"#f-{name}", Input).value)
+            if msg:
+                out.append(f"{name}: {msg}")
+        return out

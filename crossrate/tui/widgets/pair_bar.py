@@ -1,0 +1,33 @@
+"""The pair bar: oxidant, reductant and the headline result, always visible at the top."""
+
+from rich.text import Text
+from textual.widgets import Static
+
+from ...services.results import Prediction
+from ..units import rate_text
+
+
+class PairBar(Static):
+    """Two lines: the pair, then k_obs with interval and regime (or the current problem)."""
+
+    def show(self, ox: str | None, red: str | None, p: Prediction | None, problem: str = "") -> None:
+        t = Text()
+        t.append("oxidant ", style="dim")
+        t.append(ox or "(o)", style="bold")
+        t.append("  +  reductant ", style="dim")
+        t.append(red or "(r)", style="bold")
+        if p is not None and not problem:
+            c = p.conditions
+            t.append(f"   {c.temperature_K:g} K, {c.ionic_strength_M:g} M, {c.medium}", style="dim")
+        t.append("\n")
+        if problem:
+            t.append("! " + problem, style="bold")
+        elif p is None:
+            t.append("set a pair: o = oxidant, r = reductant, x = swap", style="dim")
+        else:
+            t.append(f"k_obs {rate_text(p.log10_k_obs)} M⁻¹ s⁻¹", style="bold")
+            if p.log10_k_obs_95 is not None:
+                lo, hi = p.log10_k_obs_95
+                t.append(f"  95 % {rate_text(lo)}..{rate_text(hi)}")
+            t.append(f"  {p.regime}" + (", diffusion-controlled" if p.diffusion_controlled else ""))
+        self.update(t)

@@ -1,0 +1,106 @@
+"""The driving-force curve: log10 k versus -Delta G deg' with regions, the pair, and a measured value."""
+
+from __future__ import annotations
+
+import math
+from typing import TYPE_CHECKING
+
+from rich.text import Text
+from textual.widget import Widget
+
+if TYPE_CHECKING:
+    from ...services.curves import DrivingForceCurve
+from ..units import energy_factor, power_of_ten
+from .braille_canvas import BrailleCanvas
+
+AXIS = 6  # width of the y-axis label column
+SHORT = {"endergonic": "uphill", "normal": "normal", "activationless": "top", "inverted": "inverted"}
+
+
+def _ticks(lo: float, hi: float, max_ticks: int) -> list[float]:
+    span = hi - lo
+    steps = [m * 10.0**e for e in range(-3, 5) for m in (1, 2, 2.5, 5)]
+    step = next((s for s in steps if span / s <= max_ticks), steps[-1])
+    first = math.ceil(lo / step) * step
+    return [first + k * step for k in range(int((hi - first) / step) + 1)]
+
+
+def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, measured: float | None,
+                note: str = "") -> Text:
+    """The picture as text, width x height cells."""
+    f = energy_factor(unit)
+    xs = [x * f for x in curve.minus_dG0_prime_kJ]
+    act, obs = list(curve.log10_k_act), list(curve.log10_k_obs)
+    top = math.ceil(max(max(act), max(obs)) + 0.5)
+    extras = [curve.pair_log10_k_obs] + ([measured] if measured is not None else [])
+    # Show the curve down to 14 decades below its top, and always the pair and the measured value.
+    bottom = max(math.floor(min(act)), top - 14)
+    bottom = min(bottom, math.floor(min(extras)) - 1)
+    cols, rows = max(10, width - AXIS - 1), max(4, height - 4)
+    cv = BrailleCanvas(cols, rows, xs[0], xs[-1], bottom, top)
+    for reg in curve.regions[1:]:
+        cv.vline(reg.low_kJ * f, "dim", every=2)
+    if curve.log10_k_diff is not None:
+        cv.hline(curve.log10_k_diff, "dim", every=4)
+    cv.line(xs, act, "yellow", every=2)
+    cv.line(xs, obs, "cyan")
+    for reg in curve.regions:
+        c0, _ = cv.cell_of(reg.low_kJ * f, top)
+        c1, _ = cv.cell_of(reg.high_kJ * f, top)
+        name = reg.name if c1 - c0 > len(reg.name) + 1 else SHORT[reg.name]
+        if c1 - c0 > len(name):
+            cv.text(c0 + max(0, (c1 - c0 - len(name)) // 2), 0, name, "italic")
+    cv.mark(curve.pair_x_kJ * f, curve.pair_log10_k_obs, "●", "bold")
+    if measured is not None:
+        cv.mark(curve.pair_x_kJ * f, measured, "x", "bold reverse")
+    body = cv.to_lines()
+
+    # Decades only (whole powers of ten), as many as fit with a blank row between labels.
+    step = next((k for k in (1, 2, 3, 5, 10) if (top - bottom) / k <= max(2, rows // 2)), 10)
+    first = -(-bottom // step) * step
+    y_ticks = {cv.cell_of(xs[0], y)[1]: y for y in range(first, top + 1, step)}
+    out = Text(no_wrap=True, overflow="crop")
+    out.append(note or f"k / M⁻¹ s⁻¹ against -ΔG°' ({unit});  λ12 = {curve.lambda_kJ * f:.3g} {unit}", style="bold")
+    out.append("\n")
+    for r, line in enumerate(body):
+        label = power_of_ten(y_ticks[r]) if r in y_ticks else ""
+        out.append(f"{label:>{AXIS - 1}} ┤" if label else " " * (AXIS - 1) + " │", style="dim")
+        out.append_text(line)
+        out.append("\n")
+    axis = [" "] * cols
+    labels = [" "] * cols
+    for t in _ticks(xs[0], xs[-1], max(2, cols // 10)):
+        c, _ = cv.cell_of(t, bottom)
+        axis[c] = "┬"
+        s = f"{round(t, 6):g}"
+        start = max(0, min(cols - len(s), c - len(s) // 2))
+        if all(ch == " " for ch in labels[max(0, start - 1) : start + len(s) + 1]):
+            labels[start : start + len(s)] = list(s)
+    out.append(" " * AXIS + "└" + "".join(axis)[: cols - 1] + "\n", style="dim")
+    out.append(" " * (AXIS + 1) + "".join(labels) + "\n", style="dim")
+    legend = "── k_obs (diffusion-capped)  ··· k_act  ● this pair" + ("  x measured" if measured is not None else "")
+    if curve.log10_k_diff is not None:
+        legend += "  - - k_D"
+    out.append(legend[: width])
+    return out
+
+
+class RateCurvePlot(Widget):
+    """Draws a DrivingForceCurve to fit its size; shows a hint when there is none."""
+
+    def __init__(self, **kwargs):
+        super().__init__(**kwargs)
+        self._curve: DrivingForceCurve | None = None
+        self._unit = "kJ/mol"
+        self._measured: float | None = None
+        self._note = ""
+
+    def show(self, curve: DrivingForceCurve | None, unit: str, measured_log10: float | None = None,
+             note: str = "") -> None:
+        self._curve, self._unit, self._measured, self._note = curve, unit, measured_log10, note
+        self.refresh()
+
+    def render(self) -> Text:
+        if self._curve is None:
+            return Text("No pair yet: set an oxidant (o) and a reductant (r) in the couples table.")
+        return curve_lines(self._curve, self.size.width, self.size.height, self._unit, self._measured, self._note)

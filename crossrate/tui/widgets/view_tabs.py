@@ -1,0 +1,27 @@
+"""The row of view names under the pair bar; the current one is bracketed (readable without colour)."""
+
+from rich.text import Text
+from textual.widgets import Static
+
+#: (view id, key, title) in display order.
+VIEWS = (
+    ("couples", "1", "couples"),
+    ("predict", "2", "prediction"),
+    ("curve", "3", "rate curve"),
+    ("energy", "4", "energy"),
+    ("check", "5", "check"),
+    ("map", "6", "map"),
+)
+
+
+class ViewTabs(Static):
+    def show(self, current: str, unit: str) -> None:
+        t = Text(no_wrap=True, overflow="crop")
+        for vid, key, title in VIEWS:
+            if vid == current:
+                t.append(f"[{key} {title}]", style="bold reverse")
+            else:
+                t.append(f" {key} {title} ", style="dim")
+            t.append(" ")
+        t.append(f"  {unit}", style="dim")
+        self.update(t)

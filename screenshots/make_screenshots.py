@@ -1,0 +1,81 @@
+"""Regenerate the workbench screenshots (SVG) in this folder from the demo library.
+
+    .venv/bin/python screenshots/make_screenshots.py
+
+Each picture is taken headlessly inside App.run_test(size=...): the keys a user would press, then
+pilot.pause() and app.save_screenshot(). The editor picture edits a temporary copy of the demo library, so
+libraries/demo.toml is never touched.
+"""
+
+import asyncio
+import shutil
+import sys
+import tempfile
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+ROOT = HERE.parent
+if str(ROOT) not in sys.path:  # run from a checkout without `pip install -e .`
+    sys.path.insert(0, str(ROOT))
+
+from crossrate.tui.app import CrossrateApp  # noqa: E402
+from crossrate.tui.screens.workbench import WorkbenchScreen  # noqa: E402
+
+DEMO = ROOT / "libraries" / "demo.toml"
+ONLY_DEMO = {"bundled": False, "group": False, "personal": False}
+
+#: (file name, terminal size, keys after the pair hl-med3 + hl-co-amine is set)
+SHOTS = (
+    ("main_80x24.svg", (80, 24), []),
+    ("main_120x36.svg", (120, 36), []),
+    ("prediction_100x34.svg", (100, 34), ["2"]),
+    ("rate_curve_100x30.svg", (100, 30), ["3"]),
+    ("energy_curves_100x30.svg", (100, 30), ["4"]),
+    ("rate_map_80x24.svg", (80, 24), ["6"]),
+    ("help_100x34.svg", (100, 34), ["question_mark"]),
+    ("editor_100x34.svg", (100, 34), ["1", "e"]),
+)
+
+
+async def _ready(pilot) -> WorkbenchScreen:
+    for _ in range(200):
+        await pilot.pause(0.02)
+        s = pilot.app.screen
+        if isinstance(s, WorkbenchScreen) and s.couple_set is not None:
+            return s
+    raise RuntimeError("the demo library did not load")
+
+
+async def shoot(name: str, size, keys, library: Path) -> Path:
+    app = CrossrateApp(library_paths=[str(library)], layers=ONLY_DEMO)
+    async with app.run_test(size=size) as pilot:
+        screen = await _ready(pilot)
+        table = screen.query_one("#table")
+        table.select_id("hl-med3")
+        await pilot.press("o")
+        table.select_id("hl-co-amine")
+        await pilot.press("r")
+        for k in keys:
+            await pilot.press(k)
+        while any(not w.is_finished for w in app.workers):
+            await pilot.pause(0.02)
+        await pilot.pause(0.1)
+        out = app.save_screenshot(name, path=str(HERE))
+    return Path(out)
+
+
+async def main() -> int:
+    if not DEMO.exists():
+        print(f"missing {DEMO}", file=sys.stderr)
+        return 1
+    with tempfile.TemporaryDirectory() as tmp:
+        copy = Path(tmp) / "demo.toml"
+        shutil.copyfile(DEMO, copy)
+        for name, size, keys in SHOTS:
+            path = await shoot(name, size, keys, copy)
+            print(f"wrote {path.relative_to(ROOT)}")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(asyncio.run(main()))

@@ -1,0 +1,271 @@
+"""Workbench workflows driven by real keys: search, pairing, conditions, units, swap, map, help, palette."""
+
+import math
+
+import pytest
+from tui_fixtures import run_async, small_couples
+from tui_screen_text import screen_text
+
+from crossrate.library.couple_set import CoupleSet
+from crossrate.services.conditions import Conditions
+from crossrate.services.prediction import predict
+from crossrate.tui.app import CrossrateApp
+from crossrate.tui.commands import ACTIONS
+from crossrate.tui.screens.workbench import WorkbenchScreen
+from crossrate.tui.widgets.couple_table import CoupleTable
+from crossrate.tui.widgets.heat_map import HeatMap
+
+
+async def _ready(pilot):
+    """Wait until the library worker has filled the table."""
+    for _ in range(50):
+        await pilot.pause(0.02)
+        screen = pilot.app.screen
+        if isinstance(screen, WorkbenchScreen) and screen.couple_set is not None:
+            return screen
+    raise AssertionError("the library never loaded")
+
+
+def _app(cs=None):
+    return CrossrateApp(couple_set=cs or CoupleSet(small_couples()))
+
+
+async def _settle(pilot, screen):
+    """Let the Monte Carlo worker finish so the panel shows the final interval."""
+    while any(not w.is_finished for w in pilot.app.workers):
+        await pilot.pause(0.01)
+    await pilot.pause()
+
+
+@run_async
+async def test_search_narrows_the_table_as_you_type():
+    app = _app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        table = screen.query_one(CoupleTable)
+        assert len(table.shown_ids) == 9
+        await pilot.press("slash", *"quin")
+        await pilot.pause()
+        assert table.shown_ids == ["hl-quinone"]
+        # tags are searched too: 'cage' is a tag of hl-cobalt only
+        await pilot.press(*["backspace"] * 4, *"cage")
+        await pilot.pause()
+        assert table.shown_ids == ["hl-cobalt"]
+        # medium: one couple in acetonitrile
+        await pilot.press(*["backspace"] * 4, *"acetonitrile")
+        await pilot.pause()
+        assert table.shown_ids == ["hl-ferrocene-mecn"]
+        assert "hl-ferrocene-mecn" in screen_text(app)
+        await pilot.press(*["backspace"] * 12)
+        await pilot.pause()
+        assert len(table.shown_ids) == 9
+
+
+@run_async
+async def test_sort_keys_reorder_the_table():
+    app = _app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        table = screen.query_one(CoupleTable)
+        set_order = table.shown_ids
+        await pilot.press("s")  # by id
+        assert table.shown_ids == sorted(set_order)
+        await pilot.press("s", "s", "s")  # name, charges, E on the common scale
+        E = [screen.couple_set.E_on_root(screen.couple_set[i])[0] for i in table.shown_ids]
+        assert E == sorted(E)
+        await pilot.press("S")
+        E = [screen.couple_set.E_on_root(screen.couple_set[i])[0] for i in table.shown_ids]
+        assert E == sorted(E, reverse=True)
+        assert "E/V▼" in screen_text(app)  # the sorted column is marked in the header
+
+
+@run_async
+async def test_pairing_keys_give_the_service_prediction_and_swap():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        # hl-osmium is row 0, hl-vanadium row 5 (set order)
+        await pilot.press("o", *["down"] * 5, "r")
+        await _settle(pilot, screen)
+        assert (screen.oxidant, screen.reductant) == ("hl-osmium", "hl-vanadium")
+        expected = predict(cs, "hl-osmium", "hl-vanadium", Conditions(), samples=0)
+        assert screen.prediction.log10_k_obs == pytest.approx(expected.log10_k_obs, rel=0, abs=1e-12)
+        assert screen.prediction.dG_act_kJ_per_mol == pytest.approx(expected.dG_act_kJ_per_mol, abs=1e-12)
+        # the Monte Carlo interval arrives from the worker and brackets the point value
+        lo, hi = screen.prediction.log10_k_obs_95
+        assert lo < expected.log10_k_obs < hi
+        text = screen_text(app)
+        assert "oxidant hl-osmium" in text and "reductant hl-vanadium" in text
+        assert f"{10 ** expected.log10_k_obs:.2e}" in text
+        await pilot.press("x")
+        await _settle(pilot, screen)
+        swapped = predict(cs, "hl-vanadium", "hl-osmium", Conditions(), samples=0)
+        assert screen.prediction.oxidant == "hl-vanadium"
+        assert screen.prediction.log10_k_obs == pytest.approx(swapped.log10_k_obs, abs=1e-12)
+        # the pair stays visible in every view
+        for key in "23456":
+            await pilot.press(key)
+            await pilot.pause()
+            assert "oxidant hl-vanadium" in screen_text(app)
+
+
+@run_async
+async def test_bad_condition_keeps_last_good_prediction_and_explains():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", "down", "r", "2", "tab")
+        assert app.focused.id == "cond-T"
+        await pilot.press(*["backspace"] * 6, *"310")
+        await _settle(pilot, screen)
+        good = predict(cs, "hl-osmium", "hl-iron", Conditions(temperature_K=310.0), samples=0)
+        assert screen.prediction.log10_k_obs == pytest.approx(good.log10_k_obs, abs=1e-12)
+        await pilot.press("backspace", "backspace", "backspace", *"9999")
+        await _settle(pilot, screen)
+        assert screen.prediction.log10_k_obs == pytest.approx(good.log10_k_obs, abs=1e-12)
+        assert screen.prediction.conditions.temperature_K == 310.0
+        message = str(screen.query_one("#cond-message").content)
+        assert message.startswith("! temperature 9999") and "from 200 to 400 K" in message
+        assert message.endswith("the last good prediction is kept")
+        assert f"k_obs {10 ** good.log10_k_obs:.2e}" in screen_text(app)  # pair bar keeps the good value
+        assert screen.query_one("#cond-T").has_class("-bad")
+        await pilot.press(*["backspace"] * 4, *"abc")
+        await pilot.pause()
+        assert "'abc' is not a number" in str(screen.query_one("#cond-message").content)
+        # Z accepts exponent notation; a non-positive Z is refused with its own message
+        await pilot.press("tab", "tab", "tab")
+        assert app.focused.id == "cond-Z"
+
+
+@run_async
+async def test_units_switch_between_kj_kcal_and_ev():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(120, 40)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", "down", "r", "2")
+        await _settle(pilot, screen)
+        dG = screen.prediction.dG0_kJ_per_mol
+        assert f"{dG:+.1f} kJ/mol" in screen_text(app)
+        await pilot.press("u")
+        await pilot.pause()
+        # 1 kcal = 4.184 kJ exactly (thermochemical calorie, NIST SP 811)
+        assert f"{dG / 4.184:+.1f} kcal/mol" in screen_text(app)
+        await pilot.press("u")
+        await pilot.pause()
+        # 1 eV per molecule = e N_A J/mol = 96.485 kJ/mol (CODATA, scipy.constants)
+        assert f"{dG / 96.48533212331002:+.3f} eV" in screen_text(app)
+
+
+@run_async
+async def test_mixed_media_pair_is_refused_with_a_message():
+    app = _app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", "end", "r")
+        await pilot.pause()
+        assert screen.problem.startswith("couples measured in different media")
+        assert "! couples measured in different media" in screen_text(app)
+
+
+@run_async
+async def test_heat_map_cell_sets_the_pair():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("6")
+        await _settle(pilot, screen)
+        heat = screen.query_one(HeatMap)
+        assert app.focused is heat
+        await pilot.press("down", "down", "right", "enter")
+        await _settle(pilot, screen)
+        # rows are oxidants, columns reductants, in the order of the (water-only) table
+        assert (screen.oxidant, screen.reductant) == ("hl-cobalt", "hl-iron")
+        expected = predict(cs, "hl-cobalt", "hl-iron", Conditions(), samples=0)
+        assert screen.prediction.log10_k_obs == pytest.approx(expected.log10_k_obs, abs=1e-9)
+        text = screen_text(app)
+        assert "hl-cobalt + hl-iron: k_obs 10^" in text
+
+
+@run_async
+async def test_measured_check_and_curve_mark():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(100, 30)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", "down", "r", "5", "tab")
+        await _settle(pilot, screen)
+        k = 10 ** (screen.prediction.log10_k_obs + 2.0)  # 100x faster than predicted
+        await pilot.press(*f"{k:.4e}")
+        await pilot.pause()
+        text = screen_text(app)
+        assert "beyond" in text or "more than a factor of 10" in text
+        assert "log10 +2.00" in text
+        await pilot.press("escape", "3")
+        await pilot.pause()
+        assert "x measured" in screen_text(app)
+
+
+@run_async
+async def test_help_has_caution_and_palette_lists_every_action():
+    app = _app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await _ready(pilot)
+        await pilot.press("question_mark")
+        await pilot.pause()
+        help_screen = app.screen
+        static = help_screen.query_one("#help-text")
+        from io import StringIO
+
+        from rich.console import Console
+
+        con = Console(width=200, file=StringIO(), record=True)
+        con.print(static.content)
+        text = " ".join(con.export_text().split())
+        assert "predictions are estimates, not a safety assessment" in text.lower()
+        assert "local regulations when handling strong oxidants and reductants" in text
+        assert "Marcus cross relation" in text and "Marcus parabolic free-energy surfaces" in text
+        await pilot.press("escape")
+        await pilot.pause()
+        commands = {c.title: c for c in app.get_system_commands(app.screen)}
+        assert {title for title, _h, _a, _k in ACTIONS} <= set(commands)
+        # the palette runs the action: pick "Show rate map" through the palette's own keys
+        await pilot.press("ctrl+p", *"show rate map")
+        await pilot.pause(0.3)
+        await pilot.press("enter")
+        await pilot.pause(0.2)
+        assert isinstance(app.screen, WorkbenchScreen) and app.screen.view == "map"
+
+
+def test_rate_text_is_finite_for_the_prediction_range():
+    from crossrate.tui.units import power_of_ten, rate_text
+
+    assert rate_text(5.0) == "1.00e+05"
+    assert rate_text(math.nan) == "-"
+    assert power_of_ten(-3) == "10⁻³"
+
+
+@run_async
+async def test_ansi_theme_and_no_color_keep_every_mark(monkeypatch):
+    # NO_COLOR (no-color.org): Textual then drops colours; meaning must survive in plain characters.
+    monkeypatch.setenv("NO_COLOR", "1")
+    app = _app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        app.theme = "ansi-dark"
+        screen = await _ready(pilot)
+        await pilot.press("o", "down", "r")
+        await _settle(pilot, screen)
+        text = screen_text(app)
+        assert "[1 couples]" in text  # current view bracketed
+        assert " ? hl-iron" in text  # unverified couple marked
+        await pilot.press("2")
+        await pilot.pause()
+        text = screen_text(app)
+        assert "[x] diffusion cap" in text and "[ ] allow mixed media" in text
+        for key in "3456":
+            await pilot.press(key)
+            await pilot.pause()
+            assert f"[{key} " in screen_text(app)
