@@ -35,7 +35,6 @@ def build_parser() -> argparse.ArgumentParser:
         prog="crossrate",
         description=DESCRIPTION,
         epilog=CAUTION,
-        formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     parser.add_argument("--version", action="version", version=f"crossrate {__version__}")
     parser.add_argument("--debug", action="store_true", help="show a traceback on errors")

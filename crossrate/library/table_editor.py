@@ -7,6 +7,7 @@ lines, blank lines, unchanged lines and trailing comments inside the table stay 
 Couples are written without sub-tables: bonds as an inline array of inline tables.
 """
 
+import math
 import re
 
 import tomli_w
@@ -39,7 +40,24 @@ def format_value(value) -> str:
         return "[" + ", ".join(format_value(v) for v in value) + "]"
     if isinstance(value, dict):
         return "{" + ", ".join(f"{format_key(k)} = {format_value(v)}" for k, v in value.items()) + "}"
+    if isinstance(value, float) and math.isfinite(value) and value != 0.0:
+        short = _short_float(value)
+        if short is not None:
+            return short
     return tomli_w.dumps({"v": value})[4:].rstrip("\n")
+
+
+def _short_float(value: float) -> str | None:
+    """Scientific notation for very large or small magnitudes (2.5e8, not 250000000.0), as chemists write
+    rate constants; the shortest mantissa that reads back to exactly the same float. None: keep tomli_w's."""
+    if 1e-3 <= abs(value) < 1e6:
+        return None
+    for digits in range(17):
+        text = f"{value:.{digits}e}"
+        if float(text) == value:
+            mantissa, exponent = text.split("e")
+            return f"{mantissa}e{int(exponent)}"
+    return None
 
 
 def same_value(a, b) -> bool:

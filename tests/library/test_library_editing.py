@@ -32,7 +32,7 @@ def test_update_changes_only_the_changed_lines(base_file):
     assert before == b0 and after == a0  # every other byte identical
     assert "# a comment line inside the table\n" in table  # comment inside the edited table kept
     assert table.count("\n") == t0.count("\n") + 2  # k_self changed in place; notes and tags added
-    assert "k_self = 7500000.0\n" in table
+    assert "k_self = 7.5e6\n" in table
     assert 'notes = "re-measured"\ntags = ["aqua", "checked"]\nverified = false\n' in table
     again = read_library_file(base_file)
     assert again.sha256 == sha
@@ -222,3 +222,15 @@ def test_round_trip_of_random_values(write_lib, E, k, radius, notes, tags):
     again = read_library_file(p)
     assert again.couple("t-two") == new
     assert "# a comment line inside the table" in text
+
+
+def test_large_and_small_floats_are_written_as_chemists_write_them():
+    # Rate constants span decades: 2.5e8 reads better than 250000000.0 in a hand-edited file, and the text
+    # must read back as exactly the same float (TOML 1.0 float syntax allows a signed exponent).
+    import tomllib
+
+    from crossrate.library.table_editor import format_value
+
+    for value, text in [(2.5e8, "2.5e8"), (1e-15, "1e-15"), (-2.5e-7, "-2.5e-7"), (0.5, "0.5"), (3000.0, "3000.0")]:
+        assert format_value(value) == text
+        assert tomllib.loads(f"v = {text}")["v"] == value

@@ -188,6 +188,16 @@ async def test_heat_map_cell_sets_the_pair():
         assert screen.prediction.log10_k_obs == pytest.approx(expected.log10_k_obs, abs=1e-9)
         text = screen_text(app)
         assert "hl-cobalt + hl-iron: k_obs 10^" in text
+        # the mouse: a click moves the cursor, a second click on the same cell sets the pair
+        from crossrate.tui.widgets.heat_map import CELL, LABEL
+
+        where = (LABEL + 3 * CELL + 1, 1 + 4)  # column 3 (hl-ruthenium), row 4 (hl-cyano) under one header row
+        await pilot.click(HeatMap, offset=where)
+        await pilot.pause()
+        assert heat.cell == ("hl-cyano", "hl-ruthenium") and screen.oxidant == "hl-cobalt"
+        await pilot.click(HeatMap, offset=where)
+        await _settle(pilot, screen)
+        assert (screen.oxidant, screen.reductant) == ("hl-cyano", "hl-ruthenium")
 
 
 @run_async
@@ -207,6 +217,10 @@ async def test_measured_check_and_curve_mark():
         await pilot.press("escape", "3")
         await pilot.pause()
         assert "x measured" in screen_text(app)
+        await pilot.press("x")  # another pair: the measured value belonged to the old one
+        await _settle(pilot, screen)
+        assert screen.measured is None and "x measured" not in screen_text(app)
+        assert screen.query_one("#check-k").value == ""
 
 
 @run_async
@@ -269,3 +283,27 @@ async def test_ansi_theme_and_no_color_keep_every_mark(monkeypatch):
             await pilot.press(key)
             await pilot.pause()
             assert f"[{key} " in screen_text(app)
+
+
+@run_async
+async def test_heat_map_of_thirty_couples_fits_80_columns_and_scrolls():
+    from tui_fixtures import many_couples
+
+    app = _app(CoupleSet(many_couples(40)))
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("6")
+        await _settle(pilot, screen)
+        lines = screen_text(app).splitlines()
+        tens = next(line for line in lines if line.strip().startswith("1 1 1"))
+        units = next(line for line in lines if line.lstrip().startswith("ox \\ red"))
+        # 30 columns (0..29) side by side, two cells each, within 80 characters
+        assert units.split("red", 1)[1].split() == [str(j % 10) for j in range(30)]
+        assert tens.split()[-1] == "2" and len(units) <= 80
+        await pilot.press(*["right"] * 32, "pagedown", "pagedown", "pagedown", "down", "down")
+        await pilot.pause()
+        heat = screen.query_one(HeatMap)
+        assert heat.cell == ("gen-00032", "gen-00032")
+        text = screen_text(app)
+        assert "gen-00032 + gen-00032" in text
+        assert "32 gen-00032" in text and " 0 gen-00000" not in text  # scrolled: the cursor row stays in view

@@ -20,9 +20,10 @@ from ..widgets.view_tabs import VIEWS, ViewTabs
 from .workbench_editing import WorkbenchEditing
 from .workbench_logic import WorkbenchLogic
 
-
 #: Pause between the first refresh and the start of the library loader, s (see on_mount).
 FIRST_PAINT_GRACE_S = 0.08
+#: Below this terminal width the couple detail goes under the table instead of beside it, columns.
+NARROW_BELOW = 130
 
 
 class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
@@ -78,7 +79,7 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         self.call_after_refresh(lambda: self.set_timer(FIRST_PAINT_GRACE_S, self.start_loading))
 
     def on_resize(self, event) -> None:
-        self.set_class(event.size.width < 100, "-narrow")
+        self.set_class(event.size.width < NARROW_BELOW, "-narrow")
 
     # -- workers ----------------------------------------------------------------------------------------
     @work(thread=True, exclusive=True, group="load")

@@ -21,6 +21,21 @@ from ..widgets.prediction_panel import PredictionPanel
 from ..widgets.rate_curve_plot import RateCurvePlot
 from ..widgets.view_tabs import ViewTabs
 
+#: The services phrase some fixes as command-line options; here they are fields of view 2.
+CLI_HINTS = (
+    ("(--medium M --allow-mixed-media)", "(view 2: medium and 'allow mixed media')"),
+    ("(--ionic-strength M)", "(view 2: ionic strength)"),
+    ("--ionic-strength", "the ionic strength field (view 2)"),
+    ("--medium", "the medium field (view 2)"),
+)
+
+
+def tui_wording(message: str) -> str:
+    """A service message with command-line option hints replaced by where to fix it in the workbench."""
+    for cli, tui in CLI_HINTS:
+        message = message.replace(cli, tui)
+    return message
+
 
 class WorkbenchLogic:
     """Mixed into WorkbenchScreen. Holds: couple_set, rows, oxidant, reductant, conditions, unit,
@@ -59,7 +74,8 @@ class WorkbenchLogic:
         if self.oxidant not in cs or self.reductant not in cs:
             self.oxidant = self.oxidant if self.oxidant in cs else None
             self.reductant = self.reductant if self.reductant in cs else None
-        self.status(problem or f"{len(cs)} couples from {len(cs.files) or 'the given'} file(s)")
+        shadowed = f", {len(cs.shadowed)} shadowed by a later layer" if cs.shadowed else ""
+        self.status(f"{len(cs)} couples from {len(cs.files) or 'the given'} file(s){shadowed}")
         self.recompute()
 
     def status(self, text: str) -> None:
@@ -81,6 +97,10 @@ class WorkbenchLogic:
         return self.query_one(CoupleTable).current_id
 
     def set_pair(self, ox: str | None, red: str | None) -> None:
+        if (ox, red) != (self.oxidant, self.reductant) and self.measured is not None:
+            # A measured rate belongs to its pair: a new pair starts without one.
+            self.measured = None
+            self.query_one(CheckPanel).clear()
         self.oxidant, self.reductant = ox, red
         self.recompute()
 
@@ -157,7 +177,7 @@ class WorkbenchLogic:
             try:
                 p = predict(cs, ox, red, self.conditions, samples=0)
             except CrossrateError as exc:
-                self.problem = str(exc)
+                self.problem = tui_wording(str(exc))
             else:
                 self.prediction = p
                 self._pending_key = (ox, red, self.conditions)

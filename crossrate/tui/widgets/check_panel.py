@@ -62,6 +62,13 @@ class CheckPanel(Vertical):
             return
         self.post_message(self.Entered(k, sd))
 
+    def clear(self) -> None:
+        """Empty both inputs without announcing a new measurement."""
+        for wid in ("#check-k", "#check-sd"):
+            box = self.query_one(wid, Input)
+            with box.prevent(Input.Changed):
+                box.value = ""
+
     def show(self, text) -> None:
         self.query_one("#check-result", Static).update(text)
 

@@ -81,6 +81,19 @@ class HeatMap(Widget, can_focus=True):
         if self._ids:
             self.post_message(self.Chosen(self._ids[self.row], self._ids[self.col]))
 
+    def on_click(self, event) -> None:
+        """A click moves the cursor to the cell; a click on the cell under the cursor makes it the pair."""
+        off = event.get_content_offset(self)
+        if off is None or not self._ids:
+            return
+        head = 2 if len(self._ids) > 10 else 1
+        i, j = self._top + off.y - head, self._left + (off.x - LABEL) // CELL
+        if 0 <= i < len(self._ids) and 0 <= j < len(self._ids) and off.x >= LABEL:
+            if (i, j) == (self.row, self.col):
+                self.action_choose()
+            self.row, self.col = i, j
+            self.refresh()
+
     @property
     def cell(self) -> tuple[str, str] | None:
         return (self._ids[self.row], self._ids[self.col]) if self._ids else None
