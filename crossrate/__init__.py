@@ -44,9 +44,11 @@ _LAZY = {
     "solve_k_self": ("crossrate.services.solving", "solve_k_self"),
     "solve_potential": ("crossrate.services.solving", "solve_potential"),
     "fit_series": ("crossrate.services.series_fit", "fit_series"),
-    # lambda breakdown (inner + two-sphere outer) of a library couple; the module's own name for it is used
-    # when it does not define estimate_lambda.
-    "estimate_lambda": ("crossrate.services.lambda_estimate", ("estimate_lambda", "lambda_breakdown")),
+    "check_pair": ("crossrate.services.measured_check", "check_pair"),
+    "read_partner_csv": ("crossrate.services.measured_csv", "read_partner_csv"),
+    "solve_several": ("crossrate.services.solving_several", "solve_several"),
+    # lambda breakdown (inner + two-sphere outer + work) of a library couple and the k_self it implies
+    "estimate_lambda": ("crossrate.services.lambda_estimate", "lambda_breakdown"),
     "lambda_for_structure": ("crossrate.services.lambda_estimate", "lambda_for_structure"),
     # result records
     "Prediction": ("crossrate.services.results", "Prediction"),
@@ -79,7 +81,8 @@ __all__ = [
     "__version__",
     "load_library", "CoupleSet", "Couple", "BondSet",
     "Conditions", "predict", "predict_many", "screen", "rate_map",
-    "read_measured_csv", "read_series_csv", "check_measured", "solve_k_self", "solve_potential", "fit_series",
+    "read_measured_csv", "read_series_csv", "read_partner_csv", "check_measured", "check_pair",
+    "solve_k_self", "solve_potential", "solve_several", "fit_series",
     "estimate_lambda", "lambda_for_structure",
     "Prediction", "PredictionTable", "UsedConditions", "WorkTerms", "ScreenResult", "RateMap", "ProgressCallback",
     "MeasuredRow", "SeriesData", "CheckReport", "PairCheck", "KSelfSolution", "PotentialSolution", "SeriesFit",
@@ -103,12 +106,9 @@ def __getattr__(name: str):
         raise AttributeError(
             f"crossrate.{name} is not available in this installation ({module_name} is missing)"
         ) from None
-    for candidate in (attr,) if isinstance(attr, str) else attr:
-        if hasattr(module, candidate):
-            value = getattr(module, candidate)
-            globals()[name] = value
-            return value
-    raise AttributeError(f"crossrate.{name} is not available in this installation ({module_name} lacks it)")
+    value = getattr(module, attr)
+    globals()[name] = value
+    return value
 
 
 def __dir__() -> list[str]:
@@ -133,8 +133,14 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
     from .services.conditions import Conditions
     from .services.lambda_estimate import LambdaBreakdown, lambda_for_structure
     from .services.lambda_estimate import lambda_breakdown as estimate_lambda
-    from .services.measured_check import CheckReport, PairCheck, check_measured
-    from .services.measured_csv import MeasuredRow, SeriesData, read_measured_csv, read_series_csv
+    from .services.measured_check import CheckReport, PairCheck, check_measured, check_pair
+    from .services.measured_csv import (
+        MeasuredRow,
+        SeriesData,
+        read_measured_csv,
+        read_partner_csv,
+        read_series_csv,
+    )
     from .services.prediction import predict
     from .services.progress import ProgressCallback
     from .services.rate_map import RateMap, rate_map
@@ -142,3 +148,4 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
     from .services.screening import ScreenResult, screen
     from .services.series_fit import SeriesFit, fit_series
     from .services.solving import KSelfSolution, PotentialSolution, solve_k_self, solve_potential
+    from .services.solving_several import solve_several

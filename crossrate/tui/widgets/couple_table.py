@@ -168,7 +168,8 @@ class CoupleTable(Widget, can_focus=True):
             head.append(label[:w].ljust(w) if not col.right else label[:w].rjust(w))
         out.append(" ".join(head)[:width].ljust(width), style="bold underline")
         if not self._shown:
-            out.append("\n  no couple matches the filter", style="italic")
+            empty = "no couple matches the filter" if self._rows else "no couples loaded"
+            out.append(f"\n  {empty}", style="italic")
             return out
         end = min(len(self._shown), self._top + self._body_height)
         for pos in range(self._top, end):
