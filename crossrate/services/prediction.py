@@ -57,7 +57,7 @@ def resolve_conditions(ox: Couple, red: Couple, cond: Conditions) -> ResolvedCon
             )
         notes.append(
             f"mixed media: {ox.id} was measured in {ox.medium}, {red.id} in {red.medium}; "
-            "self-exchange data carried with lambda held fixed"
+            "self-exchange data carried to the chosen medium (outer-sphere lambda rescaled by the Pekar factors)"
         )
     medium = cond.medium or ox.medium
     try:
