@@ -3,11 +3,12 @@
     .venv/bin/python screenshots/make_screenshots.py
 
 Each picture is taken headlessly inside App.run_test(size=...): the keys a user would press, then
-pilot.pause() and app.save_screenshot(). The editor picture edits a temporary copy of the demo library, so
-libraries/demo.toml is never touched.
+pilot.pause() and app.save_screenshot(). The pictures read libraries/demo.toml (shown as that relative path);
+the editor picture opens a temporary copy of it, so libraries/demo.toml is never touched.
 """
 
 import asyncio
+import os
 import shutil
 import sys
 import tempfile
@@ -22,11 +23,12 @@ from crossrate.tui.app import CrossrateApp  # noqa: E402
 from crossrate.tui.screens.workbench import WorkbenchScreen  # noqa: E402
 
 DEMO = ROOT / "libraries" / "demo.toml"
+DEMO_RELATIVE = Path("libraries") / "demo.toml"  # read from ROOT, so the detail panel shows this path
 ONLY_DEMO = {"bundled": False, "group": False, "personal": False}
 
 #: (file name, terminal size, keys after the pair hl-med3 + hl-co-amine is set)
 SHOTS = (
-    ("main_80x24.svg", (80, 24), []),
+    ("main_80x24.svg", (80, 24), ["2"]),
     ("main_120x36.svg", (120, 36), []),
     ("prediction_100x34.svg", (100, 34), ["2"]),
     ("rate_curve_100x30.svg", (100, 30), ["3"]),
@@ -47,7 +49,7 @@ async def _ready(pilot) -> WorkbenchScreen:
 
 
 async def shoot(name: str, size, keys, library: Path) -> Path:
-    app = CrossrateApp(library_paths=[str(library)], layers=ONLY_DEMO)
+    app = CrossrateApp(library_paths=[str(library)], layers=ONLY_DEMO)  # library: relative to the cwd
     async with app.run_test(size=size) as pilot:
         screen = await _ready(pilot)
         table = screen.query_one("#table")
@@ -69,10 +71,15 @@ async def main() -> int:
         print(f"missing {DEMO}", file=sys.stderr)
         return 1
     with tempfile.TemporaryDirectory() as tmp:
-        copy = Path(tmp) / "demo.toml"
-        shutil.copyfile(DEMO, copy)
+        # The editor opens a copy laid out like the checkout, so the picture shows libraries/demo.toml too.
+        (Path(tmp) / "libraries").mkdir()
+        shutil.copyfile(DEMO, Path(tmp) / DEMO_RELATIVE)
         for name, size, keys in SHOTS:
-            path = await shoot(name, size, keys, copy)
+            os.chdir(tmp if "e" in keys else ROOT)
+            try:
+                path = await shoot(name, size, keys, DEMO_RELATIVE)
+            finally:
+                os.chdir(ROOT)
             print(f"wrote {path.relative_to(ROOT)}")
     return 0
 

@@ -1,16 +1,12 @@
 """`crossrate check MEASURED.csv`: measured cross rates against the cross-relation predictions."""
 
-import argparse
 import json
 import math
 import sys
 
 from . import common_options as co
-
-CAUTION = (
-    "Predictions are estimates, not a safety assessment; follow your lab's safety rules and local "
-    "regulations when handling strong oxidants and reductants."
-)
+from .help_format import CAUTION
+from .predict_cmd import sample_count
 
 HELP = """\
 Compare measured cross rates with the Marcus cross-relation prediction under each row's conditions.
@@ -26,16 +22,17 @@ beyond_10x (further off; the likely causes worth checking are listed).
 def register(subparsers) -> None:
     p = subparsers.add_parser(
         "check", help="check measured cross rates against predictions", description=HELP, epilog=CAUTION,
-        formatter_class=argparse.RawDescriptionHelpFormatter,
+
     )
     p.add_argument("measured", metavar="MEASURED.csv", help="CSV file of measured rates")
     co.add_library_option(p)
     co.add_condition_options(p)
-    p.add_argument("--samples", type=int, default=5000, metavar="N",
-                   help="Monte Carlo draws per row for the prediction interval (default 5000)")
-    p.add_argument("--seed", type=int, default=0, metavar="S", help="random seed of the draws (default 0)")
+    p.add_argument("--samples", type=sample_count, default=5000, metavar="N",
+                   help="Monte Carlo draws per row for the prediction interval (default 5000; 0 skips it)")
+    p.add_argument("--seed", type=co.seed_value, default=0, metavar="S", help="random seed of the draws (default 0)")
     p.add_argument("--fail-over", type=co.positive_float, default=None, metavar="FACTOR",
-                   help="exit 1 when any row is off by more than FACTOR (e.g. 10), for a group's own CI")
+                   help="exit 1 when any row is off by more than this factor (k_measured/k_predicted or its "
+                        "inverse; > 1, e.g. 10), for a group's own CI")
     co.add_format_option(p, choices=("table", "json", "csv"))
     p.add_argument("--plot", default=None, metavar="FILE", help="measured vs predicted figure (.svg or .png)")
     p.set_defaults(func=run)
@@ -49,10 +46,6 @@ def run(args) -> int:
         from ..errors import ConditionsError
 
         raise ConditionsError(f"--fail-over {args.fail_over:g}: expected a factor greater than 1 (e.g. 10)")
-    if args.samples < 0:
-        from ..errors import ConditionsError
-
-        raise ConditionsError(f"--samples {args.samples}: expected 0 or more draws")
     if args.plot:
         from ..figures.backend import check_figure_path, pyplot
 
@@ -114,46 +107,55 @@ def _print_csv(report) -> None:
         ])
 
 
-SHORT_VERDICT = {"within_interval": "in interval", "within_10x": "within 10x", "beyond_10x": "beyond 10x"}
+SHORT_VERDICT = {"within_interval": "inside", "within_10x": "within 10x", "beyond_10x": "beyond 10x"}
+TABLE_HEADER = ("line", "oxidant", "reductant", "k meas", "pred [95 %]", "log r", "verdict")
+
+
+def table_lines(report) -> list[str]:
+    """The fixed-width table of the rows (ids never cut; fits 80 columns for ids up to 16 characters)."""
+    rows = [
+        (str(r.line), r.oxidant, r.reductant, f"{r.k_measured:.3g}",
+         f"{r.log10_k_pred:.2f} [{r.log10_k_pred_95[0]:.2f},{r.log10_k_pred_95[1]:.2f}]",
+         f"{r.log10_ratio:+.2f}", SHORT_VERDICT[r.verdict])
+        for r in report.rows
+    ]
+    widths = [max([len(h)] + [len(row[k]) for row in rows]) for k, h in enumerate(TABLE_HEADER)]
+    right = {0, 3, 4, 5}
+
+    def line(cells):
+        return "  ".join(c.rjust(w) if k in right else c.ljust(w)
+                         for k, (c, w) in enumerate(zip(cells, widths, strict=True))).rstrip()
+
+    return [line(TABLE_HEADER), "-" * len(line(TABLE_HEADER)), *(line(row) for row in rows)]
 
 
 def _print_table(report) -> None:
-    from rich import box
-    from rich.console import Console
-    from rich.table import Table
+    from .render_common import wrap_text
 
-    console = Console(highlight=False)
-    t = Table(title=f"measured vs predicted: {report.path} (k in M^-1 s^-1, logs base 10)", title_justify="left",
-              box=box.SIMPLE_HEAD, pad_edge=False, collapse_padding=True, padding=(0, 1))
-    for name, just in (("line", "right"), ("oxidant", "left"), ("reductant", "left"), ("k meas", "right"),
-                       ("log k pred [95 %]", "right"), ("log ratio", "right"), ("verdict", "left")):
-        t.add_column(name, justify=just, no_wrap=name not in ("oxidant", "reductant"))
-    for r in report.rows:
-        t.add_row(
-            str(r.line), r.oxidant, r.reductant, f"{r.k_measured:.3g}",
-            f"{r.log10_k_pred:.2f} [{r.log10_k_pred_95[0]:.2f},{r.log10_k_pred_95[1]:.2f}]",
-            f"{r.log10_ratio:+.2f}", SHORT_VERDICT[r.verdict],
-        )
-    console.print(t)
-    beyond = [r for r in report.rows if r.verdict == "beyond_10x"]
-    for r in beyond:
-        console.print(f"line {r.line}: {r.oxidant} + {r.reductant}: {r.verdict_text}")
+    out = [f"measured vs predicted: {report.path}", ""]
+    out += table_lines(report)
+    out += wrap_text("k meas in M^-1 s^-1; pred = log10 of the predicted k (M^-1 s^-1) with its 95 % interval; "
+                     "log r = log10(k_measured/k_predicted); inside = within the combined 95 % interval")
+    out.append("")
+    for r in (r for r in report.rows if r.verdict == "beyond_10x"):
+        out += wrap_text(f"line {r.line}: {r.oxidant} + {r.reductant}: {r.verdict_text}")
         for k, cause in enumerate(r.likely_causes[:4], start=1):
-            console.print(f"    {k}. {cause}")
+            out += wrap_text(f"{k}. {cause}", indent="    ", subsequent="       ")
     defaulted = [str(r.line) for r in report.rows if r.measured_sd_defaulted]
     if defaulted:
         from ..services.measured_check import DEFAULT_MEASURED_LOG10_SD
 
-        console.print(f"no k_measured_log10_sd on line(s) {', '.join(defaulted)}: {DEFAULT_MEASURED_LOG10_SD:g} "
-                      "in log10 assumed")
+        out += wrap_text(f"no k_measured_log10_sd on line(s) {', '.join(defaulted)}: "
+                         f"{DEFAULT_MEASURED_LOG10_SD:g} in log10 assumed")
     s = report.summary
     worst = "; ".join(f"line {line} {ox} + {red} ({ratio:+.2f})" for line, ox, red, ratio in s.worst)
-    console.print(
+    out += wrap_text(
         f"summary: {s.n} rows, median |log10 ratio| {s.median_abs_log10_ratio:.2f}, "
         f"{_pct(s.fraction_within_interval)} inside the interval, {_pct(s.fraction_within_10x)} within 10x; "
         f"worst: {worst}"
     )
-    console.print(CAUTION, style="dim")
+    out += wrap_text(CAUTION, subsequent="")
+    sys.stdout.write("\n".join(out) + "\n")
 
 
 def _times(log10_ratio: float) -> str:

@@ -25,6 +25,17 @@ def positive_float(text: str) -> float:
     return value
 
 
+def seed_value(text: str) -> int:
+    """argparse type: a random seed, a whole number >= 0 (numpy refuses negative seeds)."""
+    try:
+        value = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a whole number") from None
+    if value < 0:
+        raise argparse.ArgumentTypeError(f"{text!r}: expected a whole number 0 or greater")
+    return value
+
+
 def add_library_option(parser: argparse.ArgumentParser) -> None:
     """--library PATH (repeatable), --no-bundled."""
     parser.add_argument(

@@ -5,16 +5,18 @@ import argparse
 import math
 
 from .common_options import add_format_option, add_library_option, finite_float, positive_float
+from .help_format import CAUTION
 
 EPILOG = (
     "lambda_out: Marcus two-sphere model in the chosen solvent, r = 2a. lambda_in: sum over the bonds of both\n"
     "partners of f_ox f_red/(f_ox + f_red) (delta_d)^2; force constants in N/m (1 mdyn/A = 100 N/m).\n"
     "k_self = kappa_el Z exp(-(w + lambda/4)/RT); kappa_el is 1 unless given (library couples tagged\n"
-    "non-adiabatic without a kappa_el: 0.1). Estimated lambda carries a default 15 % SD.\n"
-    "Examples:  crossrate lambda hl-quinone --medium acetonitrile\n"
-    "           crossrate lambda --radius 3.5 --medium water --bonds 6:0.14:250:160 --charges 3:2\n"
-    "Predictions are estimates, not a safety assessment; follow your lab's safety rules and local\n"
-    "regulations when handling strong oxidants and reductants."
+    "non-adiabatic without a kappa_el: 0.1). Estimated lambda carries a default 15 % SD.\n\n"
+    "Examples:\n"
+    "  crossrate lambda hl-quinone --medium acetonitrile\n"
+    "  crossrate lambda --radius 3.5 --medium water \\\n"
+    "                   --bonds 6:0.14:250:160 --charges 3:2\n\n"
+    + CAUTION
 )
 
 
@@ -71,7 +73,7 @@ def register(subparsers) -> None:
             "instead of an ID, the same for a couple not in the library."
         ),
         epilog=EPILOG,
-        formatter_class=argparse.RawDescriptionHelpFormatter,
+
     )
     p.add_argument("couple", nargs="?", metavar="ID", help="id of a library couple")
     s = p.add_argument_group("couple not in the library")

@@ -23,7 +23,7 @@ def register(subparsers) -> None:
 
     lib = subparsers.add_parser(
         "library",
-        help="validate, list, show, add, remove and export library couples",
+        help="validate, list, show, add, rename, remove and export library couples",
         description="Work with the couple library: TOML files layered bundled -> group -> personal -> --library. "
         "The file format is described in libraries/README.md.",
     )
@@ -31,19 +31,20 @@ def register(subparsers) -> None:
     sub = lib.add_subparsers(dest="library_command", metavar="ACTION")
 
     p = sub.add_parser("validate", help="check library files; exit 0 when all are valid, 2 otherwise")
-    p.add_argument("files", nargs="+", metavar="FILE", help="library TOML file(s)")
+    p.add_argument("files", nargs="+", metavar="FILE", help="library TOML file(s); every problem is listed as "
+                   "file:line: couple: field: what was expected")
     p.set_defaults(func=run_validate)
 
     p = sub.add_parser("list", help="list the couples of the layered library")
     add_library_option(p)
-    p.add_argument("--tag", action="append", default=[], metavar="T", help="only couples with this tag (repeatable)")
-    p.add_argument("--medium", metavar="M", help="only couples measured in this solvent")
+    p.add_argument("--tag", action="append", default=[], metavar="TAG", help="only couples with this tag (repeatable)")
+    p.add_argument("--medium", metavar="NAME", help="only couples measured in this solvent (solvent key, e.g. water)")
     p.add_argument("--format", choices=("table", "json", "csv"), default="table", help="output form (default table)")
     p.set_defaults(func=run_list)
 
     p = sub.add_parser("show", help="every field of one couple, where it comes from and what it shadows")
     add_library_option(p)
-    p.add_argument("couple_id", metavar="ID")
+    p.add_argument("couple_id", metavar="ID", help="id of the couple")
     p.add_argument("--format", choices=("text", "json"), default="text", help="output form (default text)")
     p.set_defaults(func=run_show)
 
@@ -69,22 +70,23 @@ def register(subparsers) -> None:
                        choices=s.choices or None, help=f"{s.help}{unit}")
     p.set_defaults(func=run_add)
 
-    p = sub.add_parser("rename", help="change a couple's id in a library file")
-    p.add_argument("file", metavar="FILE")
-    p.add_argument("old_id", metavar="OLD")
-    p.add_argument("new_id", metavar="NEW")
+    p = sub.add_parser("rename", help="change a couple's id in a library file (the previous version is kept as "
+                       "FILE.bak)")
+    p.add_argument("file", metavar="FILE", help="library file holding the couple")
+    p.add_argument("old_id", metavar="OLD", help="current id")
+    p.add_argument("new_id", metavar="NEW", help="new id (lower-case letters, digits, . _ -)")
     p.set_defaults(func=run_rename)
 
     p = sub.add_parser("remove", help="remove a couple from a library file (the previous version is kept as FILE.bak)")
-    p.add_argument("file", metavar="FILE")
-    p.add_argument("couple_id", metavar="ID")
+    p.add_argument("file", metavar="FILE", help="library file holding the couple")
+    p.add_argument("couple_id", metavar="ID", help="id of the couple to remove")
     p.set_defaults(func=run_remove)
 
     p = sub.add_parser("export", help="write the layered couples as CSV, JSON or a self-contained TOML library")
     add_library_option(p)
-    p.add_argument("--format", choices=("csv", "json", "toml"), required=True)
-    p.add_argument("--tag", action="append", default=[], metavar="T", help="only couples with this tag (repeatable)")
-    p.add_argument("--medium", metavar="M", help="only couples measured in this solvent")
+    p.add_argument("--format", choices=("csv", "json", "toml"), required=True, help="output form")
+    p.add_argument("--tag", action="append", default=[], metavar="TAG", help="only couples with this tag (repeatable)")
+    p.add_argument("--medium", metavar="NAME", help="only couples measured in this solvent (solvent key, e.g. water)")
     p.add_argument("--out", metavar="FILE", help="write to FILE (must not exist) instead of standard output")
     p.set_defaults(func=run_export)
 
@@ -151,10 +153,6 @@ def _selected(cs, tags, medium):
     return out
 
 
-def _fmt_k(k) -> str:
-    return "-" if k is None else f"{k:.2g}"
-
-
 def run_list(args) -> int:
     from ..library.couple_export import couple_record, records_csv, records_json
 
@@ -172,48 +170,9 @@ def run_list(args) -> int:
             r["shadows"] = hides.get(r["id"], [])
         sys.stdout.write(records_json(records))
         return 0
-    from rich import box
-    from rich.console import Console
-    from rich.table import Table
+    from .render_library import print_couple_list
 
-    rows = []
-    n_unverified = 0
-    for c in couples:
-        n_unverified += not c.verified
-        star = "*" if c.E00 is not None else ""
-        q = "" if c.verified else "?"
-        rows.append((c.id, c.name, f"{c.effective_E:+.3f}{star}{q}", c.E_scale,
-                     _fmt_k(c.k_self) + (q if c.k_self is not None else ""), c.medium,
-                     f"{c.ionic_strength:g}", c.origin.layer if c.origin else ""))
-    headers = ("id", "name", "E", "scale", "k_self", "medium", "I", "layer")
-    table = Table(title=f"{len(couples)} of {len(cs)} couples", box=box.SIMPLE_HEAD, pad_edge=False,
-                  collapse_padding=True,
-                  caption="E in V on the scale shown; k_self in M^-1 s^-1; I = ionic strength in M",
-                  caption_justify="left")
-    console = Console(highlight=False)
-    widths = [max([len(h)] + [len(r[k]) for r in rows]) for k, h in enumerate(headers)]
-    # every column but the name keeps its full width; the name gives way on a narrow terminal
-    room = console.width - (sum(widths) - widths[1]) - 2 * len(headers)
-    for k, h in enumerate(headers):
-        width = widths[k]
-        if h == "name":
-            table.add_column(h, no_wrap=True, overflow="ellipsis", max_width=max(10, min(width, room)))
-        else:
-            table.add_column(h, no_wrap=True, min_width=width,
-                             justify="right" if h in ("E", "k_self", "I") else "left")
-    for r in rows:
-        table.add_row(*r)
-    console.print(table)
-    if any(c.E00 is not None for c in couples):
-        console.print("* excited-state potential (E with E00 applied)")
-    if n_unverified:
-        console.print(f"? unverified value ({n_unverified} of these couples): recalled or estimated, not checked "
-                      "against the primary source")
-    if cs.shadowed:
-        shown = ", ".join(f"{s.couple_id} ({s.hidden.layer} -> {s.winner.layer})" for s in cs.shadowed[:8])
-        more = f" and {len(cs.shadowed) - 8} more" if len(cs.shadowed) > 8 else ""
-        console.print(f"{len(cs.shadowed)} shadowed by a later layer: {shown}{more}; "
-                      "see `crossrate library show ID`")
+    print_couple_list(couples, len(cs), cs.shadowed, sys.stdout)
     return 0
 
 
@@ -267,7 +226,12 @@ def run_show(args) -> int:
         lines.append(f"  E on root scale cannot be placed ({exc})")
     for s in hidden:
         lines.append(f"  shadows         {s.hidden.path}:{s.hidden.line} ({s.hidden.layer} layer)")
-    print("\n".join(lines))
+    from .render_common import wrap_text
+
+    # Long free text (source, notes, bonds) wraps under its value; a file path is never broken.
+    print("\n".join(w for line in lines
+                    for w in ([line] if line.startswith(("  from ", "  shadows ")) else
+                              wrap_text(line, subsequent=" " * 18))))
     return 0
 
 
@@ -276,6 +240,10 @@ def run_export(args) -> int:
 
     cs = load_set(args)
     couples = _selected(cs, args.tag, args.medium)
+    if args.out is not None:
+        from .output_file import check_out_path
+
+        check_out_path(args.out, can_force=False)
     if args.format == "toml":
         text = export_toml(couples, cs.scales)
     elif args.format == "json":
@@ -285,13 +253,10 @@ def run_export(args) -> int:
     if args.out is None:
         sys.stdout.write(text)
         return 0
-    out = Path(args.out)
-    try:
-        with open(out, "x", encoding="utf-8") as fh:
-            fh.write(text)
-    except FileExistsError:
-        raise CrossrateError(f"{out}: exists already; expected a new file name (nothing was written)") from None
-    print(f"wrote {len(couples)} couples to {out}")
+    from .output_file import write_out
+
+    write_out(args.out, text, force=False, can_force=False)
+    print(f"wrote {len(couples)} couples to {args.out}")
     return 0
 
 
@@ -337,6 +302,9 @@ def run_add(args) -> int:
     from ..library.validation import ValidationContext, validate_couple
 
     path = Path(args.file)
+    if not path.parent.is_dir():
+        raise CrossrateError(f"{path}: folder {path.parent} does not exist; expected an existing folder for the "
+                             "library file (nothing was written)")
     known = _bundled_scales()
     if path.exists():
         lf = read_library_file(path, known_scales=known)
@@ -370,12 +338,28 @@ def run_add(args) -> int:
                             frozenset(solvent_table()))
     res = validate_couple(couple_id, raw, ctx, span, None)
     if isinstance(res, list):
-        problems += [p for p in res if p.field not in unreadable]
+        # A value given as an option came from the command line, not from the snippet file.
+        given = {s.name for s in FIELD_SPECS if getattr(args, _FIELD_DEST + s.name) is not None}
+        problems += [Problem("command line", None, p.couple, p.field, p.message)
+                     if p.field in given and where != "command line" else p
+                     for p in res if p.field not in unreadable]
     if problems:
         raise LibraryError(problems)
     add_couple(path, res, sha, known_scales=scales)
     print(f"added couple {couple_id} to {path}" + ("" if sha is None else f" (previous version kept as {path}.bak)"))
     return 0
+
+
+def _require_couple(lf, path, couple_id: str) -> None:
+    """CrossrateError naming the file (and the closest id) when it holds no couple `couple_id`."""
+    if lf.couple(couple_id) is not None:
+        return
+    from ..library.schema import closest
+
+    hint = closest(couple_id, [c.id for c in lf.couples])
+    raise CrossrateError(f"{path}: no couple {couple_id!r} in this file"
+                         + (f"; did you mean {hint}?" if hint else "; expected the id of one of its couples")
+                         + " (nothing was changed)")
 
 
 def run_rename(args) -> int:
@@ -384,6 +368,7 @@ def run_rename(args) -> int:
 
     known = _bundled_scales()
     lf = read_library_file(args.file, known_scales=known)
+    _require_couple(lf, args.file, args.old_id)
     rename_couple(args.file, args.old_id, args.new_id, lf.sha256, known_scales=known)
     print(f"renamed couple {args.old_id} to {args.new_id} in {args.file}")
     return 0
@@ -395,12 +380,7 @@ def run_remove(args) -> int:
 
     known = _bundled_scales()
     lf = read_library_file(args.file, known_scales=known)
-    if lf.couple(args.couple_id) is None:
-        from ..errors import UnknownCoupleError
-        from ..library.schema import closest
-
-        hint = closest(args.couple_id, [c.id for c in lf.couples])
-        raise UnknownCoupleError(f"{args.couple_id} (in {args.file})", [hint] if hint else [])
+    _require_couple(lf, args.file, args.couple_id)
     remove_couple(args.file, args.couple_id, lf.sha256, known_scales=known)
     print(f"removed couple {args.couple_id} from {args.file} (previous version kept as {args.file}.bak)")
     return 0

@@ -1,10 +1,10 @@
 """crossrate command line: `crossrate` alone opens the workbench; subcommands answer in one line over SSH."""
 
-import argparse
 import importlib
 import sys
 
 from .. import __version__
+from .help_format import CAUTION, CrossrateArgumentParser
 
 #: Subcommand modules, each exposing register(subparsers); imported only when the parser is built.
 COMMAND_MODULES = (
@@ -18,10 +18,6 @@ COMMAND_MODULES = (
     "library_cmd",
 )
 
-CAUTION = (
-    "Predictions are estimates, not a safety assessment: follow your lab's safety rules and local "
-    "regulations when handling strong oxidants and reductants."
-)
 
 DESCRIPTION = (
     "Predict and check outer-sphere electron-transfer cross rates (Marcus cross relation with work terms "
@@ -30,8 +26,8 @@ DESCRIPTION = (
 )
 
 
-def build_parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(
+def build_parser() -> CrossrateArgumentParser:
+    parser = CrossrateArgumentParser(
         prog="crossrate",
         description=DESCRIPTION,
         epilog=CAUTION,
@@ -58,6 +54,15 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
+def os_error_text(exc) -> str:
+    """`path: reason` for an OSError (no errno numbers), str(exc) for anything else."""
+    filename = getattr(exc, "filename", None)
+    reason = getattr(exc, "strerror", None)
+    if filename and reason:
+        return f"{filename}: {reason.lower()}"
+    return str(exc)
+
+
 def _run_tui(args) -> int:
     from ..tui.app import run_app
 
@@ -80,10 +85,17 @@ def main(argv: list[str] | None = None) -> int:
             raise
         print(f"crossrate: {exc}", file=sys.stderr)
         return 2
+    except BrokenPipeError:
+        # The reader went away (`| head`): not an error of the user's input. Point stdout at devnull so the
+        # interpreter's final flush does not complain again.
+        import os
+
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return 0
     except (OSError, UnicodeDecodeError) as exc:
         if args.debug:
             raise
-        print(f"crossrate: {exc}", file=sys.stderr)
+        print(f"crossrate: {os_error_text(exc)}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         return 130

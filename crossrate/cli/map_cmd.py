@@ -1,16 +1,15 @@
 """`crossrate map`: log10 k_obs for every ordered pair of loaded couples that share a medium."""
 
-import argparse
 
 from .common_options import add_condition_options, add_format_option, add_library_option
+from .help_format import CAUTION
 
 EPILOG = (
     "Rows are oxidants (couple i), columns reductants (couple j); a cell is empty (CSV) or null (JSON) where\n"
     "the pair cannot be computed: different media or potential scales, different ionic strengths without\n"
     "--ionic-strength, or no self-exchange data. The diagonal is each couple's self-exchange rate at these\n"
     "conditions. --medium keeps only couples measured in that medium (with --allow-mixed-media: computes every\n"
-    "couple in it). Predictions are estimates, not a safety assessment; follow your lab's safety rules and\n"
-    "local regulations when handling strong oxidants and reductants."
+    "couple in it).\n\n" + CAUTION
 )
 
 
@@ -20,7 +19,7 @@ def register(subparsers) -> None:
         help="matrix of log10 k_obs for every ordered pair of couples sharing a medium",
         description="Matrix of predicted log10 k_obs (M^-1 s^-1) over all ordered pairs of the loaded couples.",
         epilog=EPILOG,
-        formatter_class=argparse.RawDescriptionHelpFormatter,
+
     )
     add_library_option(p)
     add_condition_options(p)
@@ -31,38 +30,24 @@ def register(subparsers) -> None:
     p.set_defaults(func=run)
 
 
-def _write_out(path: str, text: str, force: bool) -> None:
-    """Write text to path through a temporary file, so a failure never leaves a half-written FILE."""
-    import os
-    import tempfile
-
-    from ..errors import InputFileError
-
-    if os.path.exists(path) and not force:
-        raise InputFileError(f"{path}: file exists; choose another --out or add --force to replace it")
-    folder = os.path.dirname(os.path.abspath(path))
-    fd, tmp = tempfile.mkstemp(prefix=".crossrate-map-", dir=folder)
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
-            fh.write(text)
-        os.replace(tmp, path)
-    except BaseException:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
-        raise
-
-
 def run(args) -> int:
     import json
     import sys
 
+    from ..errors import ConditionsError
     from ..services.rate_map import ids_with_tag, rate_map
     from .common_options import conditions_from_args, load_set
+    from .output_file import check_out_path, write_out
     from .render_map import map_csv, progress_bar
 
+    if args.out:
+        check_out_path(args.out, args.force)  # before the work, so a bad --out costs nothing
     conditions = conditions_from_args(args)
     couple_set = load_set(args)
     ids = ids_with_tag(couple_set, args.tag) if args.tag else None
+    if ids is not None and len(ids) == 0:
+        raise ConditionsError(f"--tag {args.tag}: no loaded couple carries this tag; expected a tag of the "
+                              "library (see `crossrate library list`)")
     with progress_bar(sys.stderr) as progress:
         result = rate_map(couple_set, ids=ids, conditions=conditions, progress=progress)
     if args.format == "json":
@@ -70,7 +55,7 @@ def run(args) -> int:
     else:
         text = map_csv(result)
     if args.out:
-        _write_out(args.out, text, args.force)
+        write_out(args.out, text, args.force)
         n = len(result)
         print(f"crossrate map: {n} x {n} couples, {result.computable} pairs computed, written to {args.out}",
               file=sys.stderr)

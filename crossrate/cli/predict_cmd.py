@@ -2,7 +2,8 @@
 
 import argparse
 
-from .common_options import add_condition_options, add_format_option, add_library_option
+from .common_options import add_condition_options, add_format_option, add_library_option, seed_value
+from .help_format import CAUTION
 
 #: Seed of the Monte Carlo interval when --seed is not given, so the same command prints the same interval.
 DEFAULT_SEED = 20261201
@@ -10,10 +11,14 @@ DEFAULT_SAMPLES = 20000
 
 EPILOG = (
     "The 95 % interval of k_obs comes from Monte Carlo draws of E and log k_self of both couples (their E_sd\n"
-    "and k_self_log10_sd; couples without them get the defaults 10 mV and 0.3, and the warnings say so).\n"
-    "Predictions are estimates, not a safety assessment; follow your lab's safety rules and local\n"
-    "regulations when handling strong oxidants and reductants."
+    "and k_self_log10_sd; couples without them get the defaults 10 mV and 0.3, and the warnings say so).\n\n"
+    "\n" + CAUTION
 )
+
+
+#: Fewest draws that give a usable 2.5/97.5 percentile interval, and the most that fit in memory comfortably
+#: (4 draws of 8 bytes per sample and couple pair: 10^6 samples are about 32 MB).
+MIN_SAMPLES, MAX_SAMPLES = 100, 1_000_000
 
 
 def non_negative_int(text: str) -> int:
@@ -27,14 +32,24 @@ def non_negative_int(text: str) -> int:
     return value
 
 
+def sample_count(text: str) -> int:
+    """argparse type: number of Monte Carlo draws, 0 (no interval) or MIN_SAMPLES..MAX_SAMPLES."""
+    value = non_negative_int(text)
+    if value != 0 and not MIN_SAMPLES <= value <= MAX_SAMPLES:
+        raise argparse.ArgumentTypeError(
+            f"{text!r}: expected 0 (no interval) or {MIN_SAMPLES} to {MAX_SAMPLES} draws"
+        )
+    return value
+
+
 def add_mc_options(parser: argparse.ArgumentParser) -> None:
     """--samples N and --seed S of the Monte Carlo interval."""
     parser.add_argument(
-        "--samples", type=non_negative_int, default=DEFAULT_SAMPLES, metavar="N",
+        "--samples", type=sample_count, default=DEFAULT_SAMPLES, metavar="N",
         help=f"Monte Carlo draws for the 95 %% interval (default {DEFAULT_SAMPLES}; 0 skips it)",
     )
     parser.add_argument(
-        "--seed", type=int, default=DEFAULT_SEED, metavar="S",
+        "--seed", type=seed_value, default=DEFAULT_SEED, metavar="S",
         help=f"random seed of the Monte Carlo draws (default {DEFAULT_SEED}, so output is reproducible)",
     )
 
@@ -49,7 +64,7 @@ def register(subparsers) -> None:
             "reduced form gives it."
         ),
         epilog=EPILOG,
-        formatter_class=argparse.RawDescriptionHelpFormatter,
+
     )
     p.add_argument("oxidant", metavar="OXIDANT", help="id of the oxidant's couple (Ox1/Red1)")
     p.add_argument("reductant", metavar="REDUCTANT", help="id of the reductant's couple (Ox2/Red2)")

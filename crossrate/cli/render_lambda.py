@@ -9,7 +9,9 @@ from ..services.lambda_estimate import STRUCTURE_ID
 from .render_common import (
     CLOSING_CAUTION,
     fmt_fixed,
+    labelled_row,
     pow10,
+    print_rich_sections,
     symbols,
     use_rich,
     wrap_item,
@@ -17,7 +19,8 @@ from .render_common import (
 )
 
 RATE_UNIT = "M^-1 s^-1"
-LABEL_W, VALUE_W, UNIT_W = 30, 16, 11
+#: Column widths of the plain form (label, value, unit); notes wrap in the rest of the 80 columns.
+WIDTHS = (25, 12, 11)
 
 
 def _pm(value, sd, digits, sym) -> str:
@@ -30,7 +33,7 @@ def lambda_sections(b, sym: dict[str, str]) -> list[tuple[str, list[tuple[str, s
     charges = "charges not given" if b.charge_ox is None else f"z_ox = {b.charge_ox:+d}, z_red = {b.charge_red:+d}"
     conditions = [
         ("medium", b.medium, "", f"n = {fmt_fixed(b.refractive_index, 4)}, eps_s = {fmt_fixed(b.relative_permittivity, 2)}"),
-        ("Pekar factor 1/n^2 - 1/eps_s", fmt_fixed(b.pekar_factor, 4), "", ""),
+        ("Pekar 1/n^2 - 1/eps_s", fmt_fixed(b.pekar_factor, 4), "", ""),
         ("temperature", fmt_fixed(b.temperature_K, 2), "K", ""),
         ("ionic strength", f"{b.ionic_strength_M:g}", "M", ""),
         ("radius a", fmt_fixed(b.radius_A, 2), "angstrom", charges),
@@ -40,10 +43,10 @@ def lambda_sections(b, sym: dict[str, str]) -> list[tuple[str, list[tuple[str, s
         (f"{lam}_in (inner sphere)", fmt_fixed(b.lambda_in_kJ_per_mol, 1) if b.lambda_in_kJ_per_mol is not None
          else "0 (none)", "kJ/mol", b.lambda_in_source),
         (f"{lam}_out (outer sphere)", fmt_fixed(b.lambda_out_kJ_per_mol, 1), "kJ/mol",
-         "Marcus two-sphere model, r = 2a"),
+         "Marcus two-sphere, r = 2a"),
         (f"{lam} (estimate)", _pm(b.lambda_estimate_kJ_per_mol, b.lambda_estimate_sd_kJ_per_mol, 1, sym), "kJ/mol",
          "default 15 % SD"),
-        ("w_ii (self-exchange work)", fmt_fixed(b.work_kJ_per_mol, 2), "kJ/mol", "Debye-Hueckel-Bronsted, r = 2a"),
+        ("w_ii (self-exchange work)", fmt_fixed(b.work_kJ_per_mol, 2), "kJ/mol", "Debye-Hueckel-Bronsted, r=2a"),
         ("kappa_el", f"{b.kappa_el:g}", "", b.kappa_el_source),
         ("k_self implied", pow10(b.log10_k_self_estimate), RATE_UNIT,
          f"log10 = {_pm(b.log10_k_self_estimate, b.log10_k_self_estimate_sd, 2, sym)}"),
@@ -74,11 +77,11 @@ def lambda_sections(b, sym: dict[str, str]) -> list[tuple[str, list[tuple[str, s
 
 def plain_lambda(b, sym: dict[str, str]) -> str:
     """The fixed-width plain-text table (ends with the closing caution line and a newline)."""
-    lines = [f"Reorganization energy of {b.couple_id} ({b.name}), self-exchange Ox + Red -> Red + Ox", ""]
+    lines = [*wrap_line(f"Reorganization energy of {b.couple_id} ({b.name}), self-exchange Ox + Red -> Red + Ox"), ""]
     for title, rows in lambda_sections(b, sym):
         lines.append(title)
         for label, value, unit, note in rows:
-            lines.append(f"  {label:<{LABEL_W}}{value:>{VALUE_W}}  {unit:<{UNIT_W}}{note}".rstrip())
+            lines.extend(labelled_row(label, value, unit, note, WIDTHS))
         lines.append("")
     lines.append("How")
     lines.extend(wrap_item(b.estimate_label))
@@ -92,27 +95,23 @@ def plain_lambda(b, sym: dict[str, str]) -> str:
 
 def _rich_lambda(b, stream) -> None:
     from rich.console import Console
-    from rich.table import Table
     from rich.text import Text
 
     sym = symbols(stream)
     console = Console(file=stream, highlight=False)
-    console.print(Text.assemble(("Reorganization energy of ", "bold"), (b.couple_id, "bold cyan"), f" ({b.name})"))
-    table = Table(show_header=False, box=None, pad_edge=False)
-    table.add_column("quantity", style="bold")
-    table.add_column("value", justify="right")
-    table.add_column("unit", style="dim")
-    table.add_column("note", style="dim")
-    for title, rows in lambda_sections(b, sym):
-        table.add_row(Text(title, style="bold underline"), "", "", "")
-        for label, value, unit, note in rows:
-            style = "bold green" if label.startswith("k_self") else ""
-            table.add_row("  " + label, Text(value, style=style), unit, note)
-    console.print(table)
-    console.print(Text("  - " + b.estimate_label))
-    console.print(Text("  - predictions: " + b.k_self_used_how))
-    for note in b.notes:
-        console.print(Text("  - " + note, style="yellow"))
+    first, *rest = wrap_line(f"Reorganization energy of {b.couple_id} ({b.name}), self-exchange Ox + Red -> Red + Ox")
+    console.print(Text.assemble(("Reorganization energy of ", "bold"), (b.couple_id, "bold cyan"),
+                                first[len("Reorganization energy of ") + len(b.couple_id):]))
+    for line in rest:
+        console.print(line)
+    print_rich_sections(console, lambda_sections(b, sym), WIDTHS, "k_self")
+    console.print()
+    console.print(Text("How", style="bold underline"))
+    for text, style in ([(b.estimate_label, ""), ("predictions: " + b.k_self_used_how, "")]
+                        + [(note, "yellow") for note in b.notes]):
+        for line in wrap_item(text):
+            console.print(Text(line, style=style))
+    console.print()
     console.print(Text(CLOSING_CAUTION, style="italic"))
 
 

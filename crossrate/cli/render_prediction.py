@@ -10,7 +10,9 @@ from .render_common import (
     CLOSING_CAUTION,
     fmt_fixed,
     fmt_sci,
+    labelled_row,
     pow10,
+    print_rich_sections,
     symbols,
     use_rich,
     wrap_item,
@@ -18,7 +20,8 @@ from .render_common import (
 )
 
 RATE_UNIT = "M^-1 s^-1"
-LABEL_W, VALUE_W, UNIT_W = 26, 24, 11
+#: Column widths of the plain form (label, value, unit); notes wrap in the rest of the 80 columns.
+WIDTHS = (25, 12, 11)
 
 
 def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[str, str, str, str]]]]:
@@ -42,19 +45,24 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
          f"{fmt_fixed(p.dG0_prime_eV, 3)} eV"),
         ("K12", pow10(p.log10_K12), "", f"log10 K12 = {fmt_fixed(p.log10_K12, 3)}"),
     ]
+    # A non-adiabatic pair reads lambda with kappa_el Z (see the README, "Electronic factor").
+    kappa = "κ" if lam == "λ" else "kappa "
+    kz = "Z" if abs(p.kappa_el12 - 1.0) < 1e-12 else f"{kappa}Z"
     barrier = [
-        (f"{lam}11", fmt_fixed(p.lambda11_kJ_per_mol, 2), "kJ/mol", "4 (RT ln(Z/k11) - w11)"),
-        (f"{lam}22", fmt_fixed(p.lambda22_kJ_per_mol, 2), "kJ/mol", "4 (RT ln(Z/k22) - w22)"),
+        (f"{lam}11", fmt_fixed(p.lambda11_kJ_per_mol, 2), "kJ/mol", f"4 (RT ln({kz}/k11) - w11)"),
+        (f"{lam}22", fmt_fixed(p.lambda22_kJ_per_mol, 2), "kJ/mol", f"4 (RT ln({kz}/k22) - w22)"),
         (f"{lam}12", fmt_fixed(p.lambda_kJ_per_mol, 2), "kJ/mol", f"({lam}11 + {lam}22)/2"),
-        (sym["dGact"], fmt_fixed(p.dG_act_kJ_per_mol, 2), "kJ/mol", f"w12 + ({lam}12/4)(1 + {sym['dG0p']}/{lam}12)^2"),
+        (sym["dGact"], fmt_fixed(p.dG_act_kJ_per_mol, 2), "kJ/mol", f"w12 + ({lam}12/4)(1+{sym['dG0p']}/{lam}12)^2"),
         ("f12", pow10(p.ln_f12 / 2.302585092994046), "", f"ln f12 = {fmt_fixed(p.ln_f12, 4)}"),
         ("W12", pow10(p.ln_W12 / 2.302585092994046), "", f"ln W12 = {fmt_fixed(p.ln_W12, 4)}"),
     ]
+    if kz != "Z":
+        barrier.append((f"{kappa.strip()}12 (electronic)", fmt_fixed(p.kappa_el12, 3), "", f"({kappa}11 {kappa}22)^1/2"))
     work = [
-        ("w11 (Ox1 + Red1)", fmt_fixed(w.w11, 3), "kJ/mol", "self-exchange of the oxidant's couple"),
-        ("w22 (Ox2 + Red2)", fmt_fixed(w.w22, 3), "kJ/mol", "self-exchange of the reductant's couple"),
-        ("w12 (Ox1 + Red2)", fmt_fixed(w.w12, 3), "kJ/mol", "forming the precursor complex"),
-        ("w21 (Red1 + Ox2)", fmt_fixed(w.w21, 3), "kJ/mol", "forming the successor complex"),
+        ("w11 (Ox1 + Red1)", fmt_fixed(w.w11, 3), "kJ/mol", "oxidant's self-exchange"),
+        ("w22 (Ox2 + Red2)", fmt_fixed(w.w22, 3), "kJ/mol", "reductant's self-exchange"),
+        ("w12 (Ox1 + Red2)", fmt_fixed(w.w12, 3), "kJ/mol", "precursor complex"),
+        ("w21 (Red1 + Ox2)", fmt_fixed(w.w21, 3), "kJ/mol", "successor complex"),
     ]
     rates = [
         ("k11 (at these conditions)", pow10(p.log10_k11), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k11, 3)}"),
@@ -65,15 +73,15 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
     ]
     if p.log10_k_obs_95 is not None:
         lo, hi = p.log10_k_obs_95
-        rates.append((
-            "k_obs 95 % interval", f"{pow10(lo)} {sym['to']} {pow10(hi)}", RATE_UNIT,
-            f"log10 {fmt_fixed(lo, 3)} to {fmt_fixed(hi, 3)}; Monte Carlo, {p.samples} draws",
-        ))
+        rates.append(("k_obs 95 % interval, low", pow10(lo), RATE_UNIT,
+                      f"log10 = {fmt_fixed(lo, 3)}; Monte Carlo"))
+        rates.append(("k_obs 95 % interval, high", pow10(hi), RATE_UNIT,
+                      f"log10 = {fmt_fixed(hi, 3)}; {p.samples} draws"))
     else:
         rates.append(("k_obs 95 % interval", "n/a", "", "Monte Carlo skipped (--samples 0)"))
     rates.append((
         "log10 k_obs SD", f"{sym['pm']}{fmt_fixed(p.log10_k_obs_sd_linear, 3)}", "log10",
-        "first-order (linear)" + (
+        "linear" + (
             f"; Monte Carlo {sym['pm']}{fmt_fixed(p.log10_k_obs_sd_mc, 3)}" if p.log10_k_obs_sd_mc is not None else ""
         ),
     ))
@@ -89,13 +97,14 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
 def plain_prediction(p, sym: dict[str, str]) -> str:
     """The fixed-width plain-text table (ends with the closing caution line and a newline)."""
     lines = [
-        f"Cross reaction  Ox1 + Red2 -> Red1 + Ox2   oxidant (couple 1): {p.oxidant}   reductant (couple 2): {p.reductant}",
+        "Cross reaction  Ox1 + Red2 -> Red1 + Ox2",
+        *wrap_item(f"oxidant (couple 1): {p.oxidant}   reductant (couple 2): {p.reductant}", bullet=""),
         "",
     ]
     for title, rows in prediction_sections(p, sym):
         lines.append(title)
         for label, value, unit, note in rows:
-            lines.append(f"  {label:<{LABEL_W}}{value:>{VALUE_W}}  {unit:<{UNIT_W}}{note}".rstrip())
+            lines.extend(labelled_row(label, value, unit, note, WIDTHS))
         lines.append("")
     lines.append("Regime")
     lines.extend(wrap_item(f"{p.regime}: {p.regime_explanation}", bullet=""))
@@ -116,32 +125,28 @@ def plain_prediction(p, sym: dict[str, str]) -> str:
 
 def _rich_prediction(p, stream) -> None:
     from rich.console import Console
-    from rich.table import Table
     from rich.text import Text
 
     sym = symbols(stream)
     console = Console(file=stream, highlight=False)
-    console.print(
-        Text.assemble(("Cross reaction ", "bold"), "Ox1 + Red2 -> Red1 + Ox2   oxidant: ",
-                      (p.oxidant, "bold cyan"), "   reductant: ", (p.reductant, "bold cyan"))
-    )
-    table = Table(show_header=False, box=None, pad_edge=False)
-    table.add_column("quantity", style="bold")
-    table.add_column("value", justify="right")
-    table.add_column("unit", style="dim")
-    table.add_column("note", style="dim")
-    for title, rows in prediction_sections(p, sym):
-        table.add_row(Text(title, style="bold underline"), "", "", "")
-        for label, value, unit, note in rows:
-            style = "bold green" if label.startswith("k_obs") else ""
-            table.add_row("  " + label, Text(value, style=style), unit, note)
-    console.print(table)
-    console.print(Text.assemble(("Regime ", "bold"), (p.regime, "bold magenta"), f": {p.regime_explanation}"))
-    console.print("diffusion-controlled: " + ("yes (k_obs is close to k_D)" if p.diffusion_controlled else "no"))
+    console.print(Text("Cross reaction  Ox1 + Red2 -> Red1 + Ox2", style="bold"))
+    console.print(Text.assemble("  oxidant (couple 1): ", (p.oxidant, "bold cyan"), "   reductant (couple 2): ",
+                                (p.reductant, "bold cyan")))
+    print_rich_sections(console, prediction_sections(p, sym), WIDTHS, "k_obs")
+    console.print()
+    console.print(Text("Regime", style="bold underline"))
+    first, *rest = wrap_item(f"{p.regime}: {p.regime_explanation}", bullet="")
+    console.print(Text.assemble("  ", (p.regime, "bold magenta"), first[2 + len(p.regime):]))
+    for line in rest:
+        console.print(line)
+    console.print("  diffusion-controlled: " + ("yes (k_obs is close to k_D)" if p.diffusion_controlled else "no"))
     if p.warnings:
+        console.print()
         console.print(Text("Warnings", style="bold yellow"))
         for text in p.warnings:
-            console.print(Text("  - " + text, style="yellow"))
+            for line in wrap_item(text):
+                console.print(Text(line, style="yellow"))
+    console.print()
     console.print(Text(CLOSING_CAUTION, style="italic"))
 
 

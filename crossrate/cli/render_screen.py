@@ -14,10 +14,11 @@ CSV_COLUMNS = (
 
 
 def heading(result) -> str:
-    """One line saying what was screened."""
+    """Two lines saying what was screened (the reaction on the second)."""
+    t = result.target
     if result.role == "oxidant":
-        return f"Screening {result.target} as oxidant: Ox({result.target}) + Red(partner) -> Red({result.target}) + Ox(partner)"
-    return f"Screening {result.target} as reductant: Ox(partner) + Red({result.target}) -> Red(partner) + Ox({result.target})"
+        return f"Screening {t} as oxidant:\n  Ox({t}) + Red(partner) -> Red({t}) + Ox(partner)"
+    return f"Screening {t} as reductant:\n  Ox(partner) + Red({t}) -> Red(partner) + Ox({t})"
 
 
 def count_line(result) -> str:
@@ -34,15 +35,21 @@ def count_line(result) -> str:
     return text
 
 
+def units_line(sym) -> str:
+    """What the columns hold, with units."""
+    return (f"k_obs in M^-1 s^-1, log10 k = log10 k_obs; {sym['dG0']} in kJ/mol; (D) diffusion-controlled "
+            "(k_act > 10 k_D). The 95 % interval is log10 k_obs +- 1.96 SD from first-order propagation of E_sd "
+            "and k_self_log10_sd (defaults 10 mV and 0.3 where a couple gives none).")
+
+
 def table_rows(result, sym) -> tuple[list[str], list[list[str]]]:
     """(header, rows) of the table form."""
-    header = ["#", "partner", "k_obs / M^-1 s^-1", "log10 k_obs", "95 % (linear)",
-              f"{sym['dG0']} kJ/mol", "regime"]
+    header = ["#", "partner", "k_obs", "log10 k", "95 % (linear)", sym["dG0"], "regime"]
     t = result.table
     rows = []
     for i, partner in enumerate(result.partner):
         lo, hi = result.log10_k_obs_95_linear[i]
-        regime = t.regime[i] + (" (diffusion-controlled)" if t.diffusion_controlled[i] else "")
+        regime = t.regime[i] + (" (D)" if t.diffusion_controlled[i] else "")
         rows.append([
             str(i + 1), partner, pow10(t.log10_k_obs[i]), fmt_fixed(t.log10_k_obs[i], 2),
             f"{fmt_fixed(lo, 2)} to {fmt_fixed(hi, 2)}", fmt_fixed(t.dG0_kJ_per_mol[i], 2), regime,
@@ -67,15 +74,13 @@ def plain_screen(result, sym) -> str:
         out.append("(no partner passes the filters)")
     out.append("")
     out.extend(wrap_line(count_line(result)))
-    out.extend(wrap_line(
-        "log10 k_obs in log10(M^-1 s^-1); the 95 % interval is log10 k_obs +- 1.96 SD from first-order "
-        "propagation of E_sd and k_self_log10_sd (defaults 10 mV and 0.3 where a couple gives none)."
-    ))
+    out.extend(wrap_line(units_line(sym)))
     out.extend(wrap_line(CLOSING_CAUTION))
     return "\n".join(out) + "\n"
 
 
 def _rich_screen(result, stream) -> None:
+    from rich import box
     from rich.console import Console
     from rich.table import Table
     from rich.text import Text
@@ -83,13 +88,15 @@ def _rich_screen(result, stream) -> None:
     sym = symbols(stream)
     console = Console(file=stream, highlight=False)
     header, rows = table_rows(result, sym)
-    table = Table(title=heading(result), title_justify="left")
+    console.print(Text(heading(result), style="bold"))
+    table = Table(box=box.SIMPLE_HEAD, pad_edge=False, collapse_padding=True, padding=(0, 1))
     for k, name in enumerate(header):
-        table.add_column(name, justify="right" if k in (0, 2, 3, 4, 5) else "left", no_wrap=k in (1, 4))
+        table.add_column(name, justify="right" if k in (0, 2, 3, 4, 5) else "left", no_wrap=True)
     for r in rows:
         table.add_row(*r)
     console.print(table)
     console.print(count_line(result))
+    console.print(Text(units_line(sym), style="dim"))
     console.print(Text(CLOSING_CAUTION, style="italic"))
 
 

@@ -9,13 +9,12 @@ from .common_options import (
     finite_float,
     positive_float,
 )
+from .help_format import CAUTION
 
 EPILOG = (
-    "--medium both sets the medium of the prediction and keeps only partners measured in it.\n"
-    "Pairs that cannot be computed (different media or potential scales, different ionic strengths without\n"
-    "--ionic-strength, no self-exchange data) are left out and counted. Predictions are estimates, not a\n"
-    "safety assessment; follow your lab's safety rules and local regulations when handling strong oxidants\n"
-    "and reductants."
+    "--medium both sets the medium of the prediction and keeps only partners measured in it. "
+    "Pairs that cannot be computed (different media or potential scales, different ionic strengths without "
+    "--ionic-strength, no self-exchange data) are left out and counted.\n\n" + CAUTION
 )
 
 
@@ -40,7 +39,7 @@ def register(subparsers) -> None:
             "interval."
         ),
         epilog=EPILOG,
-        formatter_class=argparse.RawDescriptionHelpFormatter,
+
     )
     p.add_argument("target", metavar="TARGET", help="id of the target couple")
     p.add_argument(
@@ -70,6 +69,13 @@ def run(args) -> int:
 
     conditions = conditions_from_args(args)
     couple_set = load_set(args)
+    if args.tag:
+        from ..errors import ConditionsError
+        from ..services.rate_map import ids_with_tag
+
+        if not ids_with_tag(couple_set, args.tag):
+            raise ConditionsError(f"--tag {args.tag}: no loaded couple carries this tag; expected a tag of the "
+                                  "library (see `crossrate library list`)")
     result = screen(
         couple_set, args.target, args.role, conditions, min_k=args.min_k, max_dG0=args.max_dG0,
         medium=args.medium, tag=args.tag, top=args.top,

@@ -1,15 +1,10 @@
 """`crossrate solve k-self|potential UNKNOWN`: the self-exchange rate or the potential of an unknown couple
 from its measured cross rate with a known partner (or several, --from-csv)."""
 
-import argparse
 import json
 
 from . import common_options as co
-
-CAUTION = (
-    "Predictions are estimates, not a safety assessment; follow your lab's safety rules and local "
-    "regulations when handling strong oxidants and reductants."
-)
+from .help_format import CAUTION
 
 KSELF_HELP = """\
 The apparent self-exchange rate constant of UNKNOWN (its E, charges and radius from the library; its own
@@ -40,8 +35,7 @@ def register(subparsers) -> None:
         ("k-self", "apparent self-exchange rate of an unknown couple", KSELF_HELP),
         ("potential", "potential of an unknown couple (two roots)", POTENTIAL_HELP),
     ):
-        q = sub.add_parser(name, help=helptext, description=desc, epilog=CAUTION,
-                           formatter_class=argparse.RawDescriptionHelpFormatter)
+        q = sub.add_parser(name, help=helptext, description=desc, epilog=CAUTION)
         q.add_argument("unknown", metavar="UNKNOWN", help="id of the couple solved for")
         q.add_argument("--partner", metavar="ID", help="id of the known partner couple")
         q.add_argument("--k-measured", type=co.positive_float, metavar="K",
@@ -89,12 +83,9 @@ def _emit(args, result, lines) -> None:
     if args.format == "json":
         print(json.dumps(result.to_dict(), indent=2, allow_nan=False))
         return
-    from rich.console import Console
+    from .render_common import print_lines
 
-    console = Console(highlight=False)
-    for line in lines(result):
-        console.print(line)
-    console.print(CAUTION, style="dim")
+    print_lines(lines(result), closing=CAUTION)
 
 
 def _cond(c) -> str:

@@ -8,7 +8,8 @@ from .constants import GAS_CONSTANT
 def self_exchange_lambda(ln_k_self, w_self, T_K, ln_Z):
     """Reorganization energy implied by a self-exchange rate: lambda = 4 (RT ln(Z/k_ii) - w_ii).
 
-    Marcus relation for a self-exchange (Delta G deg = 0): k_ii = Z exp(-(w_ii + lambda/4)/RT).
+    Marcus relation for a self-exchange (Delta G deg = 0): k_ii = Z exp(-(w_ii + lambda/4)/RT). For a
+    non-adiabatic couple pass ln(kappa_el Z) as ln_Z (k_ii = kappa_el Z exp(...); see cross_rate).
 
     Args:
         ln_k_self: ln k_ii, ln(M^-1 s^-1).

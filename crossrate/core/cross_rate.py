@@ -44,6 +44,8 @@ class CrossRateArrays:
     ln_k_obs: np.ndarray
     regime: np.ndarray
     diffusion_controlled: np.ndarray
+    #: ln kappa12 = (ln kappa11 + ln kappa22)/2, the pair's electronic transmission factor (0 when adiabatic).
+    ln_kappa12: np.ndarray | float = 0.0
 
 
 def cross_rate(
@@ -63,8 +65,17 @@ def cross_rate(
     viscosity_Pa_s,
     ln_Z,
     diffusion=True,
+    ln_kappa11=0.0,
+    ln_kappa22=0.0,
 ):
     """Marcus cross relation with work terms and the Debye-Smoluchowski diffusion cap, for many pairs.
+
+    Electronic transmission factors (non-adiabatic couples): each self-exchange is taken as
+    k_ii = kappa_ii Z exp(-(w_ii + lambda_ii/4)/RT) and the cross reaction as
+    k12 = kappa12 Z exp(-Delta G double-dagger_12/RT) with kappa12 = (kappa11 kappa22)^(1/2) (the usual
+    geometric-mean rule, H_AB,12^2 = H_AB,11 H_AB,22 in the non-adiabatic limit). Then lambda_ii comes from
+    ln(kappa_ii Z / k_ii), and the cross relation keeps its form with Z^2 in f12 replaced by
+    kappa11 kappa22 Z^2. With kappa = 1 (ln_kappa = 0) this is the textbook adiabatic relation.
 
     Args:
         E1_V: potential of the oxidant's couple Ox1/Red1, V; E2_V: of the reductant's couple Ox2/Red2, V
@@ -75,6 +86,8 @@ def cross_rate(
         T_K: temperature, K; I_M: ionic strength, mol/L; eps_r: relative permittivity; viscosity_Pa_s: Pa s.
         ln_Z: ln of the collision factor Z, ln(M^-1 s^-1).
         diffusion: apply the diffusion cap 1/k_obs = 1/k_act + 1/k_D; when False k_obs = k_act.
+        ln_kappa11, ln_kappa22: ln of the electronic transmission factors kappa_el of the two couples
+            (0 < kappa <= 1, so ln_kappa <= 0; default 0, adiabatic).
 
     Returns:
         CrossRateArrays (J/mol and ln(M^-1 s^-1)).
@@ -89,12 +102,17 @@ def cross_rate(
 
     dG0 = reaction_free_energy(E1_V, E2_V)
     lnK = ln_equilibrium_constant(dG0, T_K)
-    lnf = ln_f12(lnK, ln_k11, ln_k22, w11, w22, w12, w21, T_K, ln_Z)
+    # Rates with the transmission factor taken out, k_ii / kappa_ii = Z exp(-(w_ii + lambda_ii/4)/RT): the
+    # adiabatic relation holds for them, and kappa12 = (kappa11 kappa22)^(1/2) is put back on k12.
+    lk1 = np.asarray(ln_k11, dtype=float) - np.asarray(ln_kappa11, dtype=float)
+    lk2 = np.asarray(ln_k22, dtype=float) - np.asarray(ln_kappa22, dtype=float)
+    ln_kappa12 = 0.5 * (np.asarray(ln_kappa11, dtype=float) + np.asarray(ln_kappa22, dtype=float))
+    lnf = ln_f12(lnK, lk1, lk2, w11, w22, w12, w21, T_K, ln_Z)
     lnW = ln_W12(w11, w22, w12, w21, T_K)
-    ln_k_act = ln_k12_cross(ln_k11, ln_k22, lnK, lnf, lnW)
+    ln_k_act = ln_k12_cross(lk1, lk2, lnK, lnf, lnW) + ln_kappa12
 
-    lam11 = self_exchange_lambda(ln_k11, w11, T_K, ln_Z)
-    lam22 = self_exchange_lambda(ln_k22, w22, T_K, ln_Z)
+    lam11 = self_exchange_lambda(lk1, w11, T_K, ln_Z)
+    lam22 = self_exchange_lambda(lk2, w22, T_K, ln_Z)
     lam12 = cross_lambda(lam11, lam22)
     dG0p = work_corrected_driving_force(dG0, w12, w21)
     dGact = activation_free_energy(lam12, dG0p, w12)
@@ -123,21 +141,25 @@ def cross_rate(
         ln_k_obs=ln_kobs,
         regime=classify_regime(dG0p, lam12, T_K),
         diffusion_controlled=diffusion_controlled(ln_k_act, ln_kD) & bool(diffusion),
+        ln_kappa12=ln_kappa12,
     )
 
 
-def marcus_curve(minus_dG0_prime, lambda12, w12, T_K, ln_Z, ln_k_diff=None):
+def marcus_curve(minus_dG0_prime, lambda12, w12, T_K, ln_Z, ln_k_diff=None, ln_kappa12=0.0):
     """ln k_act (and ln k_obs if ln_k_diff given) along a driving-force axis, for drawing the Marcus curve.
+
+    ln k_act = ln(kappa12 Z) - Delta G double-dagger/RT (Marcus barrier form, as in cross_rate).
 
     Args:
         minus_dG0_prime: -Delta G deg' values, J/mol (array).
         lambda12: reorganization energy, J/mol; w12: precursor work, J/mol; T_K: K; ln_Z: ln(M^-1 s^-1).
         ln_k_diff: ln k_D of the pair, ln(M^-1 s^-1), or None for no cap.
+        ln_kappa12: ln of the pair's electronic transmission factor (0, adiabatic, by default).
 
     Returns:
         (ln_k_act, ln_k_obs) arrays, ln(M^-1 s^-1); ln_k_obs equals ln_k_act when ln_k_diff is None.
     """
     x = -np.asarray(minus_dG0_prime, dtype=float)
-    ln_act = ln_Z - activation_free_energy(lambda12, x, w12) / (GAS_CONSTANT * T_K)
+    ln_act = ln_Z + ln_kappa12 - activation_free_energy(lambda12, x, w12) / (GAS_CONSTANT * T_K)
     ln_obs = ln_act if ln_k_diff is None else ln_k_observed(ln_act, ln_k_diff)
     return ln_act, ln_obs

@@ -92,7 +92,7 @@ class _Conditions:
 class _Side:
     """Per-couple quantities of one side (oxidants or reductants), each a float64 1-D array."""
 
-    def __init__(self, cond: _Conditions, E_V, z_ox, z_red, r_m, ln_k_self):
+    def __init__(self, cond: _Conditions, E_V, z_ox, z_red, r_m, ln_k_self, ln_kappa=None):
         E = np.asarray(E_V, dtype=float).ravel()
         self.z_ox = np.asarray(z_ox, dtype=float).ravel()
         self.z_red = np.asarray(z_red, dtype=float).ravel()
@@ -102,9 +102,17 @@ class _Side:
         for name, arr in (("z_ox", self.z_ox), ("z_red", self.z_red), ("r_m", self.r), ("ln_k_self", ln_k)):
             if arr.shape[0] != n:
                 raise ValueError(f"{name}: {arr.shape[0]} values for {n} couples")
+        # 0.5 ln kappa_el per couple (None: all adiabatic); a pair's ln kappa12 is the sum of its two halves.
+        self.half_ln_kappa = None
+        if ln_kappa is not None:
+            lk = np.broadcast_to(np.asarray(ln_kappa, dtype=float).ravel(), (n,))
+            if np.any(lk != 0.0):
+                self.half_ln_kappa = 0.5 * lk
+                ln_k = ln_k - lk
         d = 2.0 * self.r
         w_self_RT = self.z_ox * self.z_red * cond.coulomb_RT / (d * (1.0 + cond.kappa * d))
-        # lambda_ii / (8 RT) from lambda_ii = 4 (RT ln(Z/k_ii) - w_ii); summed over a pair gives lambda12 / (4 RT).
+        # lambda_ii / (8 RT) from lambda_ii = 4 (RT ln(kappa_ii Z/k_ii) - w_ii); summed over a pair gives
+        # lambda12 / (4 RT).
         self.m = 0.5 * (cond.ln_Z - ln_k - w_self_RT)
         # F E / (4 RT): Delta G deg / (4 RT) = (F E2 - F E1) / (4 RT).
         self.fE4 = 0.25 * cond.f_RT * E
@@ -164,6 +172,9 @@ def _kernel(c: _Conditions, ox: dict, red: dict, one_electron: bool, safe_delta:
     act = s["act"]
     np.add(w, u, out=act)
     np.subtract(c.ln_Z, act, out=act)  # ln k_act = ln Z - (w12 + intrinsic barrier) / RT
+    if "lk2" in ox:  # ln kappa12 = (ln kappa11 + ln kappa22) / 2 (non-adiabatic couples present)
+        np.add(act, ox["lk2"], out=act)
+        np.add(act, red["lk2"], out=act)
     if not diffusion:
         out_ln[...] = act
         if out_dc is not None:
@@ -206,9 +217,10 @@ def _kernel(c: _Conditions, ox: dict, red: dict, one_electron: bool, safe_delta:
 _SCRATCH = ("r12", "g", "w", "y", "t", "u", "act", "kD")
 
 
-def _side_columns(side: _Side):
-    """The per-couple columns the kernel reads (charges also pre-divided by 4 for the RT/4 units of y)."""
-    return {
+def _side_columns(side: _Side, with_kappa: bool = False):
+    """The per-couple columns the kernel reads (charges also pre-divided by 4 for the RT/4 units of y);
+    with_kappa adds "lk2", 0.5 ln kappa_el per couple (zeros for a side that is all adiabatic)."""
+    cols = {
         "r": side.r,
         "z_ox": side.z_ox,
         "z_red": side.z_red,
@@ -218,6 +230,9 @@ def _side_columns(side: _Side):
         "m": side.m,
         "neg_kD": side.neg_kD,
     }
+    if with_kappa:
+        cols["lk2"] = side.half_ln_kappa if side.half_ln_kappa is not None else np.zeros_like(side.r)
+    return cols
 
 
 def _checks(c, ox, red):
@@ -265,7 +280,7 @@ def ln_k_obs_grid(
     E1_V, z_ox1, z_red1, r1_m, ln_k11,
     E2_V, z_ox2, z_red2, r2_m, ln_k22,
     T_K, I_M, eps_r, viscosity_Pa_s, ln_Z,
-    diffusion=True, classify=False, workers=DEFAULT_WORKERS,
+    diffusion=True, classify=False, workers=DEFAULT_WORKERS, ln_kappa1=None, ln_kappa2=None,
 ) -> RateGrid:
     """ln k_obs for every pair (oxidant i, reductant j): an (n_ox x n_red) grid, one set of conditions.
 
@@ -281,13 +296,16 @@ def ln_k_obs_grid(
         T_K (K), I_M (mol/L), eps_r, viscosity_Pa_s (Pa s), ln_Z (ln(M^-1 s^-1)): scalars.
         diffusion: apply the diffusion cap. classify: also return regime codes and the diffusion flag.
         workers: threads to use.
+        ln_kappa1, ln_kappa2: ln kappa_el per oxidant / reductant couple (None: adiabatic), as
+            cross_rate's ln_kappa11 / ln_kappa22.
 
     Returns:
         RateGrid with arrays of shape (n_ox, n_red).
     """
     c = _Conditions(T_K, I_M, eps_r, viscosity_Pa_s, ln_Z)
-    ox = _Side(c, E1_V, z_ox1, z_red1, r1_m, ln_k11)
-    red = _Side(c, E2_V, z_ox2, z_red2, r2_m, ln_k22)
+    ox = _Side(c, E1_V, z_ox1, z_red1, r1_m, ln_k11, ln_kappa1)
+    red = _Side(c, E2_V, z_ox2, z_red2, r2_m, ln_k22, ln_kappa2)
+    with_kappa = ox.half_ln_kappa is not None or red.half_ln_kappa is not None
     one_electron, safe = _checks(c, ox, red)
     n_ox, n_red = ox.r.shape[0], red.r.shape[0]
     out = np.empty((n_ox, n_red))
@@ -295,8 +313,8 @@ def ln_k_obs_grid(
     dc = np.empty((n_ox, n_red), dtype=bool) if classify else None
     rows = max(1, BLOCK_PAIRS // max(n_red, 1))
     n_blocks = -(-n_ox // rows) if n_red else 0
-    ox_cols = {k: v[:, None] for k, v in _side_columns(ox).items()}
-    red_cols = {k: v[None, :] for k, v in _side_columns(red).items()}
+    ox_cols = {k: v[:, None] for k, v in _side_columns(ox, with_kappa).items()}
+    red_cols = {k: v[None, :] for k, v in _side_columns(red, with_kappa).items()}
 
     def block(k, scratch):
         i0, i1 = k * rows, min(n_ox, (k + 1) * rows)
@@ -314,7 +332,7 @@ def ln_k_obs_pairs(
     ox_index, red_index,
     E_V, z_ox, z_red, r_m, ln_k_self,
     T_K, I_M, eps_r, viscosity_Pa_s, ln_Z,
-    diffusion=True, classify=False, workers=DEFAULT_WORKERS,
+    diffusion=True, classify=False, workers=DEFAULT_WORKERS, ln_kappa=None,
 ) -> RateGrid:
     """ln k_obs for listed pairs (ox_index[k], red_index[k]) of one couple list, one set of conditions.
 
@@ -325,12 +343,14 @@ def ln_k_obs_pairs(
         ox_index, red_index: integer arrays of equal length, positions in the couple columns.
         E_V (V), z_ox, z_red, r_m (m), ln_k_self (ln(M^-1 s^-1), at these conditions): 1-D per-couple columns.
         T_K, I_M, eps_r, viscosity_Pa_s, ln_Z, diffusion, classify, workers: as for ln_k_obs_grid.
+        ln_kappa: ln kappa_el per couple (None: adiabatic), as cross_rate's ln_kappa11 / ln_kappa22.
 
     Returns:
         RateGrid with 1-D arrays, one value per pair.
     """
     c = _Conditions(T_K, I_M, eps_r, viscosity_Pa_s, ln_Z)
-    side = _Side(c, E_V, z_ox, z_red, r_m, ln_k_self)
+    side = _Side(c, E_V, z_ox, z_red, r_m, ln_k_self, ln_kappa)
+    with_kappa = side.half_ln_kappa is not None
     ox_i = np.asarray(ox_index, dtype=np.intp).ravel()
     red_i = np.asarray(red_index, dtype=np.intp).ravel()
     if ox_i.shape != red_i.shape:
@@ -341,14 +361,15 @@ def ln_k_obs_pairs(
     out = np.empty(n)
     reg = np.empty(n, dtype=np.int8) if classify else None
     dc = np.empty(n, dtype=bool) if classify else None
-    cols = _side_columns(side)
+    cols = _side_columns(side, with_kappa)
     n_c = side.r.shape[0]
     for name, pos in (("ox_index", ox_i), ("red_index", red_i)):
         if pos.size and (pos.min() < 0 or pos.max() >= n_c):
             raise IndexError(f"{name}: positions must lie in 0..{n_c - 1} for {n_c} couples")
     # Only the columns the kernel reads from each side are gathered.
-    ox_names = ("r", "z_ox", "z_ox4", "fE4", "m", "neg_kD") + (() if one_electron else ("z_red4",))
-    red_names = ("r", "z_red", "z_ox4", "fE4", "m", "neg_kD") + (() if one_electron else ("z_ox",))
+    extra = ("lk2",) if with_kappa else ()
+    ox_names = ("r", "z_ox", "z_ox4", "fE4", "m", "neg_kD") + (() if one_electron else ("z_red4",)) + extra
+    red_names = ("r", "z_red", "z_ox4", "fE4", "m", "neg_kD") + (() if one_electron else ("z_ox",)) + extra
     n_blocks = -(-n // BLOCK_PAIRS)
 
     def gather(names, idx, scratch, tag):

@@ -135,6 +135,18 @@ def load_layered(extra_paths=(), bundled: bool = True, group: bool = True, perso
 
     extra_paths: --library files (layer "cli"). Raises LibraryError listing the problems of every file.
     """
+    couple_set, problems = load_layered_partial(extra_paths, bundled, group, personal)
+    if problems:
+        raise LibraryError(problems)
+    return couple_set
+
+
+def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = True,
+                         personal: bool = True) -> tuple[CoupleSet, list[Problem]]:
+    """Like load_layered, but a file with problems is left out instead of failing the whole set:
+    (the CoupleSet of the files that are fine, every problem of the files left out). A left-out file is not
+    among the set's files, so nothing is ever written to it. LibraryError only for a malformed config file.
+    """
     problems: list[Problem] = []
     couples: dict = {}
     shadowed: list[Shadowing] = []
@@ -172,8 +184,6 @@ def load_layered(extra_paths=(), bundled: bool = True, group: bool = True, perso
             if prev is not None:
                 shadowed.append(Shadowing(c.id, prev.origin, c.origin))
             couples[c.id] = c
-    if problems:
-        raise LibraryError(problems)
     return CoupleSet(
         list(couples.values()),
         ScaleRegistry({k: v[0] for k, v in merged.items()}),
@@ -181,4 +191,4 @@ def load_layered(extra_paths=(), bundled: bool = True, group: bool = True, perso
         files,
         file_sha256=shas,
         file_layers=layers,
-    )
+    ), problems

@@ -9,6 +9,7 @@ from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
 from .conditions import Conditions
+from .couple_lambda import lambda_columns
 from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
 from .results import PredictionTable
 from .self_exchange import self_exchange_at
@@ -61,10 +62,14 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
     else:
         media = sorted(set(a.medium.tolist()))
         table = {m: (float(get_solvent(m).permittivity(T)), float(get_solvent(m).viscosity_Pa_s(T))) for m in media}
-        eps_c = np.array([table[m][0] for m in a.medium], dtype=float)
-        visc_c = np.array([table[m][1] for m in a.medium], dtype=float)
-        eps, visc = eps_c[ox], visc_c[ox]
         per_pair_medium = len(media) > 1
+        if per_pair_medium:
+            eps_c = np.array([table[m][0] for m in a.medium], dtype=float)
+            visc_c = np.array([table[m][1] for m in a.medium], dtype=float)
+            eps, visc = eps_c[ox], visc_c[ox]
+        else:
+            # One medium in the whole set: scalars, so that the per-couple carrying below broadcasts.
+            eps, visc = table[media[0]] if media else (float("nan"), float("nan"))
 
     if cond.ionic_strength_M is not None:
         I = float(cond.ionic_strength_M)
@@ -94,6 +99,8 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
         allc = np.arange(len(cs))
         se = self_exchange_at(cs, allc, T, I, eps, ln_Z, medium=cond.medium)
         lnk_ox, sd_ox, lnk_red, sd_red = se.ln_k[ox], se.ln_k_sd[ox], se.ln_k[red], se.ln_k_sd[red]
+    # kappa_el per couple: lambda_ii is read from k_ii / (kappa_el Z) and k12 carries (kappa11 kappa22)^(1/2).
+    ln_kap = np.log(lambda_columns(cs).kappa_el)
     no_rate = ~(np.isfinite(lnk_ox) & np.isfinite(lnk_red))
     problem[no_rate & (problem == "")] = "no self-exchange rate or reorganization energy"
 
@@ -115,6 +122,8 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
             visc,
             ln_Z,
             diffusion=cond.diffusion,
+            ln_kappa11=ln_kap[ox],
+            ln_kappa22=ln_kap[red],
         )
 
     with np.errstate(invalid="ignore"):

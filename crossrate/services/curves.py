@@ -1,7 +1,7 @@
 """Data for the two pictures of a prediction: the driving-force (Marcus) curve and the free-energy surfaces.
 
-Both are computed from a Prediction alone (its lambda12, w12, T, Z, k_D and Delta G deg'), through the core:
-the driving-force curve with crossrate.core.cross_rate.marcus_curve, the regions with
+Both are computed from a Prediction alone (its lambda12, w12, T, Z, kappa_el12, k_D and Delta G deg'),
+through the core: the driving-force curve with crossrate.core.cross_rate.marcus_curve, the regions with
 crossrate.core.regime.classify_regime (the same rule the prediction uses), the surfaces with
 crossrate.core.energy_surfaces. Energies here are kJ/mol, rates log10(M^-1 s^-1).
 """
@@ -101,7 +101,9 @@ def driving_force_curve(prediction: Prediction, points: int = 601) -> DrivingFor
     T = p.conditions.temperature_K
     ln_Z = float(np.log(p.conditions.Z))
     ln_kD = p.log10_k_diff * LN10 if p.conditions.diffusion else None
-    ln_act, ln_obs = marcus_curve(x * KJ, lam_kJ * KJ, p.work_kJ_per_mol.w12 * KJ, T, ln_Z, ln_kD)
+    ln_act, ln_obs = marcus_curve(
+        x * KJ, lam_kJ * KJ, p.work_kJ_per_mol.w12 * KJ, T, ln_Z, ln_kD, ln_kappa12=float(np.log(p.kappa_el12))
+    )
     return DrivingForceCurve(
         minus_dG0_prime_kJ=x,
         log10_k_act=np.asarray(ln_act) / LN10,

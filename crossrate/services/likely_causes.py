@@ -96,8 +96,9 @@ def likely_causes(
     if non_ad:
         out.append(Cause(
             "non_adiabatic",
-            f"non-adiabatic transfer ({', '.join(non_ad)} marked so): weak electronic coupling makes the cross "
-            "reaction slower than the adiabatic relation",
+            f"non-adiabatic transfer ({', '.join(non_ad)} marked so; the prediction already includes "
+            f"kappa12 = (kappa11 kappa22)^1/2 = {p.kappa_el12:.2g}): the cross pair's electronic coupling may be "
+            "weaker than that geometric mean of the self-exchanges assumes",
             3.5 if slower else 0.8,
         ))
     elif slower:

@@ -17,8 +17,8 @@ Every kind also accepts free-text columns label, note and source.
 """
 
 import csv
+import difflib
 import io
-import math
 from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
@@ -27,86 +27,22 @@ import numpy as np
 
 from ..core.constants import EV, KJ
 from ..errors import InputFileError
-from .conditions import IONIC_STRENGTH_MAX_M, TEMPERATURE_RANGE_K
+from .csv_cells import (
+    energy_eV,
+    energy_kJ,
+    identifier,
+    ionic_strength,
+    log10_sd,
+    medium_key,
+    positive_rate,
+    role,
+    temperature,
+)
 
 #: Free-text columns every kind of file may carry.
 TEXT_COLUMNS = ("label", "note", "source")
 #: Most problems listed in one message.
 MAX_PROBLEMS = 20
-
-
-def _number(text: str) -> float:
-    try:
-        value = float(text)
-    except ValueError:
-        raise ValueError("a number") from None
-    if not math.isfinite(value):
-        raise ValueError("a finite number")
-    return value
-
-
-def positive_rate(text: str) -> float:
-    """A rate constant in M^-1 s^-1: finite and > 0."""
-    value = _number(text)
-    if value <= 0:
-        raise ValueError("a rate constant greater than 0 in M^-1 s^-1")
-    return value
-
-
-def log10_sd(text: str) -> float:
-    """A standard deviation in log10 units: finite and > 0 (0.3 is a factor of 2)."""
-    value = _number(text)
-    if value <= 0:
-        raise ValueError("a standard deviation in log10 units greater than 0 (0.3 is a factor of 2)")
-    return value
-
-
-def temperature(text: str) -> float:
-    value = _number(text)
-    lo, hi = TEMPERATURE_RANGE_K
-    if not lo <= value <= hi:
-        raise ValueError(f"a temperature from {lo:g} to {hi:g} K")
-    return value
-
-
-def ionic_strength(text: str) -> float:
-    value = _number(text)
-    if not 0.0 <= value <= IONIC_STRENGTH_MAX_M:
-        raise ValueError(f"an ionic strength from 0 to {IONIC_STRENGTH_MAX_M:g} mol/L")
-    return value
-
-
-def identifier(text: str) -> str:
-    if not text:
-        raise ValueError("a couple id")
-    return text
-
-
-def role(text: str) -> str:
-    value = text.lower()
-    if value not in ("oxidant", "reductant", "auto"):
-        raise ValueError("oxidant, reductant or auto")
-    return value
-
-
-#: Largest |Delta G deg| accepted in a series, eV (beyond any one-electron outer-sphere step; catches kJ/mol
-#: values typed into the eV column).
-MAX_ABS_DG0_EV = 5.0
-
-
-def energy_eV(text: str) -> float:
-    value = _number(text)
-    if abs(value) > MAX_ABS_DG0_EV:
-        raise ValueError(f"a driving force within +-{MAX_ABS_DG0_EV:g} eV (a value in kJ/mol in the eV column?)")
-    return value
-
-
-def energy_kJ(text: str) -> float:
-    value = _number(text)
-    limit = MAX_ABS_DG0_EV * EV / KJ
-    if abs(value) > limit:
-        raise ValueError(f"a driving force within +-{limit:.0f} kJ/mol (a value in J/mol?)")
-    return value
 
 
 @dataclass(frozen=True)
@@ -126,6 +62,39 @@ class CsvRow:
     values: dict
 
 
+def _read_text(p: Path) -> str:
+    """The file's text (UTF-8, an optional byte-order mark dropped); InputFileError naming the file, and
+    for bad bytes the line and column, when it cannot be read."""
+    if p.is_dir():
+        raise InputFileError(f"{p}: cannot be read: it is a folder; expected a CSV file")
+    try:
+        data = p.read_bytes()
+    except FileNotFoundError:
+        raise InputFileError(f"{p}: cannot be read: no such file; expected a CSV file") from None
+    except OSError as exc:
+        raise InputFileError(f"{p}: cannot be read ({(exc.strerror or str(exc)).lower()})") from None
+    if data.startswith((b"\xff\xfe", b"\xfe\xff")):
+        raise InputFileError(f"{p}:1:1: not a UTF-8 text file (it starts with a UTF-16 byte-order mark); "
+                             "expected a UTF-8 encoded CSV file (save it as 'CSV UTF-8' from a spreadsheet)")
+    try:
+        return data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        start = 3 if data.startswith(b"\xef\xbb\xbf") else 0
+        before = data[start:exc.start]
+        line = before.count(b"\n") + 1
+        col = len(before[before.rfind(b"\n") + 1:].decode("utf-8", errors="replace")) + 1
+        raise InputFileError(
+            f"{p}:{line}:{col}: not a UTF-8 text file (byte 0x{data[exc.start]:02x}); expected a UTF-8 encoded CSV "
+            "file (save it as 'CSV UTF-8' from a spreadsheet)"
+        ) from None
+
+
+def _lines(text: str) -> list[str]:
+    """Lines split at the line ends editors count (LF, CRLF, CR) only: str.splitlines() also breaks at
+    form feeds and Unicode separators, which would shift the line numbers in the messages."""
+    return text.replace("\r\n", "\n").replace("\r", "\n").split("\n")
+
+
 def _locate(path, line, col, name):
     return f"{path}:{line}:{col}: field {name}"
 
@@ -142,12 +111,7 @@ def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) 
         the data rows in file order.
     """
     p = Path(path)
-    try:
-        text = p.read_text(encoding="utf-8-sig")
-    except UnicodeDecodeError as exc:
-        raise InputFileError(f"{p}: not a UTF-8 text file ({exc.reason} at byte {exc.start})") from None
-    except OSError as exc:
-        raise InputFileError(f"{p}: cannot be read ({exc.strerror or exc})") from None
+    text = _read_text(p)
     rules = {c.name: c for c in columns}
     for name in TEXT_COLUMNS:
         rules.setdefault(name, Column(name, str))
@@ -155,7 +119,7 @@ def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) 
     header: list[str] | None = None
     header_line = 0
     rows: list[CsvRow] = []
-    for lineno, raw in enumerate(text.splitlines(), start=1):
+    for lineno, raw in enumerate(_lines(text), start=1):
         if not raw.strip() or raw.lstrip().startswith("#"):
             continue
         try:
@@ -169,6 +133,10 @@ def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) 
             problems.extend(_check_header(p, lineno, header, rules, one_of))
             if problems:
                 break
+            continue
+        if raw.count('"') % 2:
+            problems.append(f"{p}:{lineno}: a double quote is not closed; expected every quoted cell to end with "
+                            "a quote on the same line")
             continue
         if len(cells) != len(header):
             problems.append(
@@ -192,7 +160,9 @@ def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) 
         if len(problems) >= MAX_PROBLEMS:
             break
     if header is None and not problems:
-        problems.append(f"{p}: no header line (expected columns {', '.join(c.name for c in columns if c.required)})")
+        wanted = ([" or ".join(one_of)] if one_of else []) + [c.name for c in columns if c.required]
+        problems.append(f"{p}: no header line (the file is empty or holds only comments); expected a header "
+                        f"with the columns {', '.join(wanted)}, then one line per data row")
     elif header is not None and not rows and not problems:
         problems.append(f"{p}:{header_line}: a header but no data rows")
     if problems:
@@ -209,7 +179,9 @@ def _check_header(p, lineno, header, rules, one_of):
             out.append(f"{p}:{lineno}:{col}: column {name!r} appears twice")
         seen.add(name)
         if name not in rules:
-            out.append(f"{p}:{lineno}:{col}: unknown column {name!r}; expected columns: {', '.join(rules)}")
+            near = difflib.get_close_matches(name.lower(), list(rules), n=1, cutoff=0.6)
+            hint = f"did you mean {near[0]!r}? " if near else ""
+            out.append(f"{p}:{lineno}:{col}: unknown column {name!r}; {hint}expected columns: {', '.join(rules)}")
     for name, rule in rules.items():
         if rule.required and name not in seen:
             out.append(f"{p}:{lineno}: missing column {name!r}")
@@ -230,7 +202,7 @@ MEASURED_COLUMNS = (
     Column("k_measured_log10_sd", log10_sd),
     Column("temperature", temperature),
     Column("ionic_strength", ionic_strength),
-    Column("medium", identifier),
+    Column("medium", medium_key),
 )
 
 PARTNER_COLUMNS = (
@@ -240,7 +212,7 @@ PARTNER_COLUMNS = (
     Column("role", role),
     Column("temperature", temperature),
     Column("ionic_strength", ionic_strength),
-    Column("medium", identifier),
+    Column("medium", medium_key),
 )
 
 SERIES_COLUMNS = (

@@ -12,6 +12,7 @@ import numpy as np
 from ..core.rate_grid import ln_k_obs_pairs
 from ..core.solvents import get_solvent
 from ..library.couple_set import CoupleSet
+from .couple_lambda import lambda_columns
 from .self_exchange import self_exchange_at
 
 #: Above this many distinct (I, medium) combinations the per-pair path is used (grouping would not pay).
@@ -98,6 +99,8 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     z_ox = np.concatenate([a.z_ox, a.z_ox])
     z_red = np.concatenate([a.z_red, a.z_red])
     r = np.concatenate([a.radius_m, a.radius_m])
+    ln_kap = np.log(lambda_columns(cs).kappa_el)
+    ln_kap2 = np.concatenate([ln_kap, ln_kap]) if np.any(ln_kap != 0.0) else None
     sE = np.hypot(sds[0], sds[1])
     sK = np.hypot(sds[2], sds[3])
     for g, lnk in zip(groups, ln_k_by_group, strict=True):
@@ -115,6 +118,7 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
                     lk[:N] += sign * h
                 with np.errstate(invalid="ignore"):
                     vals.append(ln_k_obs_pairs(o, rr, E, z_ox, z_red, r, lk, T_K, g.I_M, g.eps_r,
-                                               g.viscosity_Pa_s, ln_Z, diffusion=diffusion).ln_k_obs)
+                                               g.viscosity_Pa_s, ln_Z, diffusion=diffusion,
+                                               ln_kappa=ln_kap2).ln_k_obs)
             var[g.rows] += ((vals[0] - vals[1]) / (2.0 * h) * spread[g.rows]) ** 2
     return np.sqrt(var)

@@ -14,7 +14,7 @@ from ..library.couple_set import CoupleSet
 from .conditions import Conditions
 from .prediction_warnings import pair_warnings
 from .results import Prediction, UsedConditions, WorkTerms
-from .self_exchange import self_exchange_at
+from .self_exchange import DEFAULT_K_SELF_LOG10_SD, self_exchange_at
 from .uncertainty import DEFAULT_E_SD_V, InputSpread, linear_sd, monte_carlo
 
 LN10 = float(np.log(10.0))
@@ -23,7 +23,7 @@ REGIME_EXPLANATIONS = {
     "endergonic": "uphill (Delta G deg' > 0): the rate is limited by the unfavourable equilibrium",
     "normal": "normal region (0 < -Delta G deg' < lambda): more driving force makes the reaction faster",
     "activationless": (
-        f"activationless (-Delta G deg' within {ACTIVATIONLESS_BAND_RT:g} RT of barrier-free at lambda): "
+        f"activationless (-Delta G deg' near lambda: intrinsic barrier at most {ACTIVATIONLESS_BAND_RT:g} RT): "
         "near the fastest rate this lambda allows"
     ),
     "inverted": "inverted region (-Delta G deg' > lambda): more driving force makes the reaction slower",
@@ -108,6 +108,9 @@ def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
         cs, [i_ox, i_red], rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.ln_Z, medium=rc.medium
     )
 
+    # kappa_el of both couples: lambda_ii is read from k_ii / (kappa_el Z), and k12 carries kappa12.
+    ln_kap = np.log(np.asarray(se.kappa_el, dtype=float))
+
     def evaluate(dE1=0.0, dE2=0.0, dlnk11=0.0, dlnk22=0.0) -> CrossRateArrays:
         return cross_rate(
             E1 + np.asarray(dE1),
@@ -126,6 +129,8 @@ def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
             rc.viscosity_Pa_s,
             rc.ln_Z,
             diffusion=rc.diffusion,
+            ln_kappa11=float(ln_kap[0]),
+            ln_kappa22=float(ln_kap[1]),
         )
 
     return evaluate, se
@@ -146,12 +151,18 @@ def predict(
         oxidant: id of couple 1, whose oxidized form takes the electron.
         reductant: id of couple 2, whose reduced form gives it.
         conditions: target conditions (default: 298.15 K, the couples' own I and medium, Z = 1e11 M^-1 s^-1).
-        samples: Monte Carlo draws for the 95 % interval (0 skips it); seed: RNG seed for reproducibility.
+        samples: Monte Carlo draws for the 95 % interval (0 skips it, otherwise at least 2); seed: RNG seed
+            for reproducibility.
 
     Returns:
         Prediction (kJ/mol, log10 M^-1 s^-1). Raises UnknownCoupleError, ConditionsError or ScienceError.
     """
     cond = conditions or Conditions()
+    if samples is None:
+        samples = 0
+    if int(samples) != samples or samples < 0 or samples == 1:
+        # One draw has no spread: its "percentiles" would be the draw itself, not an interval.
+        raise ConditionsError(f"samples {samples!r}: expected 0 (no interval) or at least 2 Monte Carlo draws")
     ox, red = couple_set[oxidant], couple_set[reductant]
     rc = resolve_conditions(ox, red, cond)
     E1, E2 = _require_same_scale(couple_set, ox, red)
@@ -185,7 +196,7 @@ def predict(
         if not np.isfinite(a.E_sd_V[i]):
             defaulted.append(f"E of {c.id} (default SD {DEFAULT_E_SD_V * 1000:g} mV)")
         if se.defaulted_sd[k]:
-            defaulted.append(f"k_self of {c.id} (default SD 0.3 in log10)")
+            defaulted.append(f"k_self of {c.id} (default SD {DEFAULT_K_SELF_LOG10_SD:g} in log10)")
     estimated = tuple(
         se.description(k) or f"k_self of {c.id} from its reorganization energy"
         for c, k in ((ox, 0), (red, 1))
@@ -236,6 +247,7 @@ def predict(
         diffusion_controlled=bool(res.diffusion_controlled),
         warnings=warnings,
         estimated=estimated,
+        kappa_el12=float(np.exp(f(res.ln_kappa12))),
     )
 
 

@@ -4,6 +4,7 @@ import numpy as np
 
 from ..core.constants import EV, KJ
 from ..core.regime import DIFFUSION_CONTROL_RATIO
+from .couple_lambda import KAPPA_DEFAULT, couple_kappa
 
 #: |Delta G deg| (eV) beyond which the quadratic Marcus form is flagged as least reliable (common practice).
 LARGE_DRIVING_FORCE_EV = 0.75
@@ -32,8 +33,21 @@ def pair_warnings(ox, red, rc, res, estimated, defaulted) -> tuple[str, ...]:
             out.append(
                 f"{c.id}: spin change on electron transfer; the cross relation often fails for such couples"
             )
-        if c.kappa_el is not None and c.kappa_el < 1.0:
-            out.append(f"{c.id}: marked non-adiabatic (kappa_el = {c.kappa_el:g})")
+        kappa, code = couple_kappa(c)
+        if kappa < 1.0:
+            how = "default for couples tagged non-adiabatic" if code == KAPPA_DEFAULT else "given"
+            out.append(
+                f"{c.id}: marked non-adiabatic (kappa_el = {kappa:g}, {how}); its lambda is read from "
+                "k_self / (kappa_el Z), and k12 carries kappa12 = (kappa11 kappa22)^1/2"
+            )
+    # An excited-state couple reacts from its excited form only in one role: *Ox as oxidant, *Red as reductant.
+    # In the other role the excited form is the product, and E -/+ E00 then prices forming it.
+    for c, role, product in ((ox, "oxidant", "red"), (red, "reductant", "ox")):
+        if c.E00 is not None and c.excited_form == product:
+            out.append(
+                f"{c.id}: as the {role} its excited {product} form is formed, not consumed "
+                f"(E {'-' if product == 'red' else '+'} E00 used): the reaction would have to make the excited state"
+            )
     for e in estimated:
         out.append(f"estimated: {e}")
     if defaulted:

@@ -141,6 +141,7 @@ def rate_map(
         members = idx[pos]
         se = self_exchange_at(couple_set, members, T, I, eps, ln_Z, medium=medium)
         ok = np.isfinite(se.ln_k)
+        ln_kap = np.log(se.kappa_el)  # non-adiabatic couples: as cross_rate's ln_kappa11 / ln_kappa22
         cols = pos[ok]
         m = members[ok]
         for s in range(0, m.size, ROWS_PER_STEP):
@@ -149,6 +150,7 @@ def rate_map(
                 a.E_root_V[m[r]], a.z_ox[m[r]], a.z_red[m[r]], a.radius_m[m[r]], se.ln_k[ok][r],
                 a.E_root_V[m], a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok],
                 T, I, eps, visc, ln_Z, diffusion=cond.diffusion,
+                ln_kappa1=ln_kap[ok][r], ln_kappa2=ln_kap[ok],
             )
             out[np.ix_(cols[r], cols)] = grid.ln_k_obs / LN10
             done += int(cols[r].size)

@@ -57,6 +57,10 @@ class Prediction(_Record):
 
     Energies in kJ/mol (and eV where named), rate constants as log10 of M^-1 s^-1, ln_f12 and ln_W12
     dimensionless natural logs. log10_k_obs_95 is the Monte Carlo 95 % interval (None when samples = 0).
+    dG_act_kJ_per_mol is the Marcus barrier w12 + (lambda12/4)(1 + dG0'/lambda12)^2, so that
+    k_act = kappa_el12 Z exp(-dG_act/RT); kappa_el12 = (kappa11 kappa22)^(1/2) is the pair's electronic
+    transmission factor (1 when both couples are adiabatic; lambda11, lambda22 are read with kappa_el Z).
+    log10_k_obs_sd_mc is None when fewer than two Monte Carlo draws were made.
     """
 
     oxidant: str
@@ -88,6 +92,7 @@ class Prediction(_Record):
     diffusion_controlled: bool
     warnings: tuple[str, ...]
     estimated: tuple[str, ...]
+    kappa_el12: float = 1.0
 
     @property
     def k_obs(self) -> float:

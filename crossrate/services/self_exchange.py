@@ -11,7 +11,9 @@ How k_self at the target is obtained, in order of preference (documented in the 
 3. lambda_total (J/mol, in the couple's own solvent; rescaled as in 2 for another solvent);
 4. lambda_in or bonds: lambda = lambda_in + two-sphere lambda_out in the target solvent at the target T;
 5. none of these: NaN with a reason.
-In 3 and 4, k_self = kappa_el Z exp(-(w_self + lambda/4)/RT) (kappa_el as in couple_lambda).
+In 3 and 4, k_self = kappa_el Z exp(-(w_self + lambda/4)/RT) (kappa_el as in couple_lambda); in 1 and 2 the
+measured k_self is read the same way, lambda = 4 (RT ln(kappa_el Z / k_self) - w_self), which is also how
+crossrate.core.cross_rate reads lambda_ii from the carried rate (so the lambda a prediction shows is this one).
 Uncertainty of an estimated lambda: DEFAULT_LAMBDA_REL_SD of the estimated part (all of it in 3 and 4, the
 Pekar shift in 2), giving sigma(ln k) = sigma(lambda)/(4RT); plus DEFAULT_KAPPA_EL_LOG10_SD for a defaulted
 kappa_el.
@@ -212,9 +214,18 @@ def self_exchange_at(couple_set: CoupleSet, idx, T_K, I_M, eps_target, ln_Z, med
 
     ln_k0 = a.ln_k_self[idx]
     measured = np.isfinite(ln_k0)
+    dH = a.dH_self_J[idx]
+    eps_T0 = None
+    if np.any(np.isfinite(dH)):
+        # The Eyring route takes the ionic-strength/solvent step at T0: the target solvent's permittivity at
+        # T0, i.e. eps_target scaled by that solvent's own eps(T0)/eps(T) (1 for solvents held at 25 degC).
+        eps_T0 = np.asarray(eps_target, dtype=float) * (
+            _per_couple_permittivity(med_to, T0) / _per_couple_permittivity(med_to, np.broadcast_to(T, (n,)))
+        )
+    # lambda is read with kappa_el Z as the pre-exponential, as in crossrate.core.cross_rate.
     ln_k_carry = carry_ln_k_self(
-        np.where(measured, ln_k0, 0.0), z_ox, z_red, r, T0, I0, eps0, T_K, I_M, eps_target, ln_Z,
-        dH_self_J_per_mol=a.dH_self_J[idx],
+        np.where(measured, ln_k0, 0.0), z_ox, z_red, r, T0, I0, eps0, T_K, I_M, eps_target, ln_Z + ln_kappa,
+        dH_self_J_per_mol=dH, eps_at_T0=eps_T0,
     )
     sd_meas = a.ln_k_self_sd[idx]
     defaulted = ~np.isfinite(sd_meas)
@@ -263,10 +274,10 @@ def self_exchange_at(couple_set: CoupleSet, idx, T_K, I_M, eps_target, ln_Z, med
     lam_in_used = np.where(from_struct, lam_in_data, np.where(measured | from_total, lam_in_kept, np.nan))
     lam_sd = np.where(measured, sd_shift, np.where(estimated, sd_lam_est, np.nan))
 
-    # A k_self at or above Z exp(-w/RT) leaves no barrier: lambda <= 0, outside the Marcus model. Refuse it
-    # with a reason rather than return a meaningless rate.
+    # A k_self at or above kappa_el Z exp(-w/RT) leaves no barrier: lambda <= 0, outside the Marcus model.
+    # Refuse it with a reason rather than return a meaningless rate.
     with np.errstate(invalid="ignore"):
-        lam_target = self_exchange_lambda(ln_k, w_t, T_K, ln_Z)
+        lam_target = self_exchange_lambda(ln_k - ln_kappa, w_t, T_K, ln_Z)
     no_barrier = np.broadcast_to(np.isfinite(lam_target) & (lam_target <= 0.0), (n,))
     ln_k = np.where(no_barrier, np.nan, ln_k)
     sd = np.where(no_barrier, np.nan, sd)
@@ -280,7 +291,8 @@ def self_exchange_at(couple_set: CoupleSet, idx, T_K, I_M, eps_target, ln_Z, med
     for k in np.flatnonzero(no_barrier).tolist():
         reason[k] = (
             f"couple {a.ids[idx[k]]}: its self-exchange rate at these conditions is at or above the limit "
-            f"Z exp(-w/RT) (Z = {np.exp(ln_Z):.3g} M^-1 s^-1), which leaves no barrier (lambda <= 0); "
+            f"kappa_el Z exp(-w/RT) (Z = {np.exp(ln_Z):.3g} M^-1 s^-1, kappa_el = {float(kappa[k]):g}), "
+            "which leaves no barrier (lambda <= 0); "
             "check k_self, its ionic strength and radius, or raise Z"
         )
     shape = np.broadcast(ln_k, sd).shape

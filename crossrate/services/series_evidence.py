@@ -38,7 +38,7 @@ def inverted_region_evidence(
     if supported:
         d = list(depths)
         return (
-            f"Yes, an inverted region is supported: {n_past_below} points lie {where} and sit "
+            f"Yes, an inverted region is supported: {n_past} points lie {where}, and {n_past_below} of them sit "
             f"{min(d):.1f} to {max(d):.1f} log10 units below the plateau; {comparison}."
         )
     if n_past == 0:

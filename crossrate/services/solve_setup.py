@@ -46,6 +46,9 @@ class PairSetup:
     ln_k_unknown_sd: float
     ln_k_diff: float
     warnings: tuple[str, ...]
+    #: ln kappa_el of the unknown and of the partner (0 for adiabatic couples).
+    ln_kappa_unknown: float = 0.0
+    ln_kappa_partner: float = 0.0
 
     @property
     def RT(self) -> float:
@@ -59,7 +62,10 @@ class PairSetup:
         lu = self.ln_k_unknown if ln_k_unknown is None else ln_k_unknown
         lp = self.ln_k_partner if ln_k_partner is None else ln_k_partner
         u, p = self.unknown, self.partner
-        first, second = ((u, Eu, lu), (p, Ep, lp)) if self.role == "oxidant" else ((p, Ep, lp), (u, Eu, lu))
+        ku, kp = self.ln_kappa_unknown, self.ln_kappa_partner
+        first, second = (
+            ((u, Eu, lu, ku), (p, Ep, lp, kp)) if self.role == "oxidant" else ((p, Ep, lp, kp), (u, Eu, lu, ku))
+        )
         rc = self.rc
         return cross_rate(
             first[1], second[1],
@@ -67,7 +73,7 @@ class PairSetup:
             first[0].radius * ANGSTROM, second[0].radius * ANGSTROM,
             first[2], second[2],
             rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.viscosity_Pa_s, rc.ln_Z,
-            diffusion=False,
+            diffusion=False, ln_kappa11=first[3], ln_kappa22=second[3],
         )
 
     def ln_k_act(self, **trial) -> float:
@@ -127,7 +133,10 @@ def setup_pair(
     ox, red = (u, p) if role == "oxidant" else (p, u)
     rc = resolve_conditions(ox, red, cond)
     i_u, i_p = (int(i) for i in couple_set.index_of([u.id, p.id]))
-    se = self_exchange_at(couple_set, [i_u, i_p], rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.ln_Z)
+    # Same carrying as predict(): to the resolved medium (Pekar rescaling where a couple was measured elsewhere).
+    se = self_exchange_at(
+        couple_set, [i_u, i_p], rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.ln_Z, medium=rc.medium
+    )
     if se.reason[1]:
         raise ScienceError(f"partner {se.reason[1]}; the partner's self-exchange rate is needed")
     a = couple_set.arrays
@@ -141,6 +150,7 @@ def setup_pair(
         ln_k_partner=float(se.ln_k[1]), ln_k_partner_sd=float(se.ln_k_sd[1]),
         ln_k_unknown=float(se.ln_k[0]), ln_k_unknown_sd=float(se.ln_k_sd[0]),
         ln_k_diff=float("nan"), warnings=rc.warnings,
+        ln_kappa_unknown=float(np.log(se.kappa_el[0])), ln_kappa_partner=float(np.log(se.kappa_el[1])),
     )
     # k_D depends only on radii, charges and solvent, not on E or k_self: evaluate once with placeholders.
     probe = setup.evaluate(ln_k_unknown=0.0 if not np.isfinite(setup.ln_k_unknown) else None)

@@ -87,7 +87,7 @@ def _k_self_roots(s: PairSetup, target: float, **others) -> tuple[float, float |
     w_u = float(res0.w11 if s.role == "oxidant" else res0.w22)
     lam_p = float(res0.lambda22 if s.role == "oxidant" else res0.lambda11)
     dGp = float(res0.dG0_prime)
-    ln_Z = s.rc.ln_Z
+    ln_Z = s.rc.ln_Z + s.ln_kappa_unknown  # the unknown's own pre-exponential kappa_el Z
     top = ln_Z - w_u / RT - 1e-9  # lambda_unknown -> 0
     # Over lambda the barrier (lambda + dG')^2 / 4 lambda is lowest at lambda = |dG'| (either sign of dG'),
     # so k12 peaks where lambda12 = |Delta G deg'|, i.e. at this lambda of the unknown:

@@ -47,8 +47,11 @@ def linear_sd(model: Model, spread: InputSpread, steps=(1e-4, 1e-4, 1e-3, 1e-3))
 def monte_carlo(model: Model, spread: InputSpread, samples: int, seed: int | None = None):
     """(2.5 %, 97.5 %) percentiles and SD of log10 k_obs over `samples` normal draws of the inputs.
 
-    Returns (low, high, sd) in log10(M^-1 s^-1). Reproducible for a given seed.
+    Returns (low, high, sd) in log10(M^-1 s^-1). Reproducible for a given seed. samples must be >= 2 (one
+    draw has no spread).
     """
+    if samples < 2:
+        raise ValueError(f"samples = {samples}: a Monte Carlo interval needs at least 2 draws")
     rng = np.random.default_rng(seed)
     draws = rng.standard_normal((4, samples)) * spread.as_array()[:, None]
     log10_k = np.asarray(model(draws[0], draws[1], draws[2], draws[3]), dtype=float) / LN10

@@ -45,18 +45,24 @@ class CrossrateApp(App):
 
     # -- commands -----------------------------------------------------------------------------------------
     def get_system_commands(self, screen) -> Iterable[SystemCommand]:
+        from .screens.workbench import WorkbenchScreen
+
         yield from super().get_system_commands(screen)
-        for title, help_text, action in COMMANDS:
-            yield SystemCommand(title, help_text, lambda a=action: self.run_workbench_action(a))
+        # Only from the workbench itself: "Edit couple" from inside an open form would stack a second form.
+        if isinstance(screen, WorkbenchScreen):
+            for title, help_text, action in COMMANDS:
+                yield SystemCommand(title, help_text, lambda a=action: self.run_workbench_action(a))
 
     async def run_workbench_action(self, action: str) -> None:
         """Run an action of the workbench screen (from the command palette)."""
         from .screens.workbench import WorkbenchScreen
 
-        for s in self.screen_stack:
-            if isinstance(s, WorkbenchScreen):
-                await s.run_action(action)
-                return
+        if isinstance(self.screen, WorkbenchScreen):
+            await self.screen.run_action(action)
+
+    async def action_quit(self) -> None:
+        """The palette's "Quit" asks about unsaved edits too, like ctrl+q."""
+        self.action_quit_safely()
 
     def action_quit_safely(self) -> None:
         if not self.unsaved_edits:

@@ -14,12 +14,14 @@ ACTIONS = (
     ("Set reductant", "the highlighted couple gives the electron (couple 2)", "set_reductant", "r"),
     ("Swap pair", "exchange oxidant and reductant", "swap", "x"),
     ("Switch energy units", "kJ/mol, kcal/mol, eV", "cycle_unit", "u"),
-    ("Sort table", "cycle the sort column (S reverses)", "sort_table", "s"),
+    ("Sort table", "sort by the next column", "sort_table", "s"),
+    ("Reverse sort", "reverse the order of the sorted column", "reverse_sort", "S"),
     ("Edit couple", "edit the highlighted couple in its library file", "edit", "e"),
     ("Add couple", "a new couple in a library file", "add", "a"),
     ("Duplicate couple", "a copy of the highlighted couple under a new id", "duplicate", "d"),
     ("Delete couple", "remove the highlighted couple from its file (asks first)", "delete", "delete"),
     ("Reload library", "read the library files again", "reload", "ctrl+r"),
+    ("Library problems", "what is wrong in the library files that were left out", "problems", "p"),
     ("Help", "keys, quantities and their equations", "help", "? / f1"),
 )
 

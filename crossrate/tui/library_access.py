@@ -6,17 +6,19 @@ from ..errors import CrossrateError
 
 def load_layered_set(library_paths, **layers):
     """(CoupleSet or None, message) for the layered library plus the given files; layers: bundled, group,
-    personal flags of load_layered."""
+    personal flags of load_layered. A file with problems is left out and its problems are the message (the
+    set then holds the other files); None only when even the list of files cannot be made (bad config)."""
     try:
-        from ..library.layers import load_layered
+        from ..library.layers import load_layered_partial
     except ModuleNotFoundError as exc:
         if exc.name != "crossrate.library.layers":
             raise
         return _load_files_only(library_paths)
     try:
-        return load_layered(extra_paths=tuple(library_paths), **layers), ""
+        cs, problems = load_layered_partial(extra_paths=tuple(library_paths), **layers)
     except CrossrateError as exc:
         return None, str(exc)
+    return cs, "\n".join(str(p) for p in problems)
 
 
 def _load_files_only(library_paths):

@@ -159,4 +159,4 @@ def test_fit_table_and_bad_series(run, tmp_path):
     code, _, err = run("fit", str(broken))
     assert code == 2 and f"{broken}:3: 1 fields, expected 2" in err
     code, _, err = run("fit", str(series), "--interval", "bootstrap", "--bootstrap", "3")
-    assert code == 2 and "at least 10" in err
+    assert code == 2 and "expected 10 to 10000 refits" in err

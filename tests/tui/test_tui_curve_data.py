@@ -94,3 +94,18 @@ def test_energy_surfaces_of_a_prediction(pair):
     # ΔG‡ = w12 + (λ/4)(1 + ΔG°'/λ)² (Marcus quadratic barrier) is what the prediction reports.
     assert s.dG_act_kJ == pytest.approx(pair.dG_act_kJ_per_mol, abs=1e-9)
     assert s.x[0] < min(0.0, s.x_cross) and s.x[-1] > max(1.0, s.x_cross)
+
+
+def test_measured_mark_beside_the_pair_mark_when_they_share_a_cell(pair):
+    from crossrate.tui.widgets.rate_curve_plot import curve_lines
+
+    curve = driving_force_curve(pair)
+    # a measured value equal to the prediction falls in the pair's own cell: both marks must stay visible
+    lines = curve_lines(curve, 80, 20, "kJ/mol", measured=pair.log10_k_obs).plain.splitlines()
+    row = next(ln for ln in lines if "●" in ln)
+    assert "●x" in row
+    # six decades below: the x sits lower in the plot than the dot (rows below the title, above the axis)
+    lines = curve_lines(curve, 80, 20, "kJ/mol", measured=pair.log10_k_obs - 6).plain.splitlines()[1:-3]
+    dot_row = next(i for i, ln in enumerate(lines) if "●" in ln)
+    x_rows = [i for i, ln in enumerate(lines) if "x" in ln[7:]]
+    assert x_rows and all(i > dot_row for i in x_rows)

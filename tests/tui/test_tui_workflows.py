@@ -168,6 +168,8 @@ async def test_mixed_media_pair_is_refused_with_a_message():
         await pilot.pause()
         assert screen.problem.startswith("couples measured in different media")
         assert "! couples measured in different media" in screen_text(app)
+        # no good prediction yet: the panel gives the reason (not "No pair yet")
+        assert str(screen.query_one("#prediction").content).startswith("! couples measured in different media")
 
 
 @run_async
@@ -307,3 +309,110 @@ async def test_heat_map_of_thirty_couples_fits_80_columns_and_scrolls():
         text = screen_text(app)
         assert "gen-00032 + gen-00032" in text
         assert "32 gen-00032" in text and " 0 gen-00000" not in text  # scrolled: the cursor row stays in view
+
+
+@run_async
+async def test_keys_typed_fast_after_slash_land_in_the_filter():
+    from textual import events
+
+    app = _app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        # all keys queued at once, as a fast typist or a paste over SSH delivers them
+        for key, ch in (("slash", "/"), ("c", "c"), ("a", "a"), ("g", "g"), ("e", "e"), ("slash", "/")):
+            app.post_message(events.Key(key, ch))
+        await pilot.pause(0.2)
+        assert screen.query_one("#search").value == "cage/"  # a '/' typed in the filter is text
+        assert isinstance(app.screen, WorkbenchScreen)  # the "e" did not open the editor
+
+
+@run_async
+async def test_prediction_view_at_80x24_shows_the_answer_first_and_scrolls():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", *["down"] * 5, "r", "2")
+        await _settle(pilot, screen)
+        p = screen.prediction
+        text = screen_text(app)
+        lo, hi = p.log10_k_obs_95
+        for shown in (f"k_obs      {10 ** p.log10_k_obs:.2e}", f"95 %       {10 ** lo:.2e} to {10 ** hi:.2e}",
+                      f"regime     {p.regime}", "warnings"):
+            assert shown in text
+        assert app.focused.id == "prediction-scroll"
+        box = screen.query_one("#prediction-scroll")
+        assert box.max_scroll_y > 0 and box.scroll_y == 0
+        await pilot.press("pagedown")
+        await pilot.pause(0.3)
+        assert box.scroll_y > 0
+        assert "k_D" in screen_text(app)  # the last lines are reachable
+        await pilot.press("tab")  # into the conditions: PgUp still scrolls the prediction
+        assert app.focused.id == "cond-T"
+        await pilot.press("pageup")
+        await pilot.pause(0.3)
+        assert box.scroll_y == 0
+
+
+@run_async
+async def test_bad_condition_is_shown_in_the_pair_bar_and_a_pair_problem_in_the_panel():
+    app = _app()
+    async with app.run_test(size=(100, 30)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", "down", "r", "2", "tab", *["backspace"] * 6)
+        await pilot.pause()
+        bar = " ".join(str(screen.query_one("#pair-bar").content).split())
+        assert "! temperature: empty; expected a number (K); k_obs above is for the last good conditions" in bar
+        await pilot.press(*"300")
+        await _settle(pilot, screen)
+        assert "last good" not in str(screen.query_one("#pair-bar").content)
+        # a pair the services refuse: the panel says why and labels the last good prediction it keeps
+        await pilot.press("escape", "1", "end", "r", "2")
+        await pilot.pause()
+        panel = str(screen.query_one("#prediction").content)
+        assert "\n! couples measured in different media" in panel
+        assert "showing the last good prediction (hl-osmium + hl-iron)" in panel
+
+
+@run_async
+async def test_mouse_pairing_click_a_row_then_the_footer_keys():
+    from textual.widgets._footer import FooterKey
+
+    app = _app()
+    async with app.run_test(size=(100, 30)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.click(CoupleTable, offset=(5, 3))  # header row, then the third couple
+        await pilot.pause()
+        assert screen.query_one(CoupleTable).current_id == "hl-cobalt"
+        await pilot.click(next(k for k in screen.query(FooterKey) if k.key == "o"))
+        await pilot.click(CoupleTable, offset=(5, 2))
+        await pilot.pause()
+        await pilot.click(next(k for k in screen.query(FooterKey) if k.key == "r"))
+        await _settle(pilot, screen)
+        assert (screen.oxidant, screen.reductant) == ("hl-cobalt", "hl-iron")
+
+
+def test_every_key_is_in_the_help_and_every_action_in_the_palette():
+    from crossrate.tui.screens.help_screen import help_table
+    from crossrate.tui.widgets.heat_map import HeatMap
+
+    con_text = []
+    from io import StringIO
+
+    from rich.console import Console
+
+    con = Console(width=200, file=StringIO(), record=True)
+    con.print(help_table())
+    con_text = con.export_text()
+    actions = {a.split("(")[0] for _t, _h, a, _k in ACTIONS}
+    # navigation keys are described together in the help ("↑ ↓ PgUp PgDn", "Home End", "tab / esc")
+    navigation = {"move", "page", "jump", "leave_input", "scroll_result", "choose"}
+    for cls in (WorkbenchScreen, CoupleTable, HeatMap):
+        for b in cls.BINDINGS:
+            name = b.action.split("(")[0]
+            assert name in actions or name in navigation or name in {"cycle_sort", "reverse_sort"}, b
+    for _title, _help, action, key in ACTIONS:
+        assert hasattr(WorkbenchScreen, "action_" + action.split("(")[0]), action
+        assert key.split(" ")[0] in con_text
+    for words in ("PgUp", "Home End", "ctrl+p", "ctrl+q", "tab / esc", "enter"):
+        assert words in con_text

@@ -44,6 +44,10 @@ def help_table() -> Table:
     t.add_row("ctrl+p", "command palette: every action above, searchable")
     t.add_row("ctrl+q", "quit (asks first when a form has unsaved edits)")
     t.add_row("tab / esc", "into the next field / out of a field (then the keys above work)")
+    t.add_row("↑ ↓ PgUp PgDn", "move in the table and the map; scroll the prediction and the check")
+    t.add_row("Home End", "first / last couple of the table")
+    t.add_row("mouse", "click a row to highlight it, then o / r (or click them in the footer); a "
+              "second click on a map cell sets its pair")
     t.add_row("", "")
     t.add_row(Text("Quantities", style="bold underline"), "")
     for q, text in QUANTITIES:

@@ -36,16 +36,20 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         Binding("o", "set_oxidant", "oxidant"),
         Binding("r", "set_reductant", "reductant"),
         Binding("x", "swap", "swap"),
-        Binding("slash", "search", "search"),
-        Binding("u", "cycle_unit", "units"),
+        # A priority binding runs before the next key is passed on, so "/cage" typed fast lands in the filter.
+        Binding("slash", "search", "search", priority=True),
+        Binding("u", "cycle_unit", "units", show=False),
         Binding("e", "edit", "edit"),
         Binding("a", "add", "add", show=False),
         Binding("d", "duplicate", "duplicate", show=False),
         Binding("delete", "delete", "delete", show=False),
         Binding("ctrl+r", "reload", "reload", show=False),
+        Binding("p", "problems", "library problems", show=False),
         Binding("question_mark,f1", "help", "help"),
         Binding("escape", "leave_input", show=False),
         Binding("enter", "toggle_detail", "detail", show=False),
+        Binding("pageup", "scroll_result(-1)", show=False),
+        Binding("pagedown", "scroll_result(1)", show=False),
     ]
 
     def compose(self) -> ComposeResult:
@@ -73,7 +77,7 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
     def on_mount(self) -> None:
         self.query_one(ViewTabs).show("couples", self.unit)
         self.query_one(PairBar).show(None, None, None)
-        self.query_one(CoupleTable).focus()
+        self.set_focus(self.query_one(CoupleTable))
         # Load after the first frame is on the terminal: the loader imports numpy and scipy in a thread, and
         # holding the GIL for that would delay the driver's writer thread (and so the first paint) by ~0.5 s.
         self.call_after_refresh(lambda: self.set_timer(FIRST_PAINT_GRACE_S, self.start_loading))
@@ -104,7 +108,7 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
 
     @on(Input.Submitted, "#search")
     def _search_done(self) -> None:
-        self.query_one(CoupleTable).focus()
+        self.set_focus(self.query_one(CoupleTable))
 
     @on(CoupleTable.Highlighted)
     def _highlighted(self, event: CoupleTable.Highlighted) -> None:
@@ -113,9 +117,15 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
     @on(ConditionsForm.Changed)
     def _conditions(self, event: ConditionsForm.Changed) -> None:
         self.conditions = event.conditions
+        self.cond_problem = ""
         self.recompute()
         if self.view == "map":
             self.refresh_map()
+
+    @on(ConditionsForm.Invalid)
+    def _conditions_bad(self, event: ConditionsForm.Invalid) -> None:
+        self.cond_problem = event.problem
+        self.refresh_results()
 
     @on(CheckPanel.Entered)
     def _measured(self, event: CheckPanel.Entered) -> None:

@@ -30,6 +30,19 @@ CLI_HINTS = (
 )
 
 
+#: What has the focus when a view is shown (and after esc): the table, the map, or the scrollable result.
+VIEW_FOCUS = {"couples": "#table", "predict": "#prediction-scroll", "check": "#check-scroll", "map": "#heat"}
+
+#: The status line on entering a view: how to move in it.
+VIEW_HINTS = {
+    "predict": "↑↓ PgUp PgDn scroll  tab: into the conditions  esc: out of a field",
+    "curve": "● this pair  x a measured k (enter it in view 5)  u energy units",
+    "energy": "◆ where the parabolas cross: the barrier  u energy units",
+    "check": "tab: into the measured k  esc: out of a field  PgUp PgDn scroll",
+    "map": "arrows move  enter (or a second click) sets the pair  / filters the couples",
+}
+
+
 def tui_wording(message: str) -> str:
     """A service message with command-line option hints replaced by where to fix it in the workbench."""
     for cli, tui in CLI_HINTS:
@@ -49,6 +62,8 @@ class WorkbenchLogic:
     unit = "kJ/mol"
     prediction = None
     problem = ""
+    #: Why the conditions form holds no valid set ("" when it does): the last good conditions stay in use.
+    cond_problem = ""
     measured: tuple[float, float | None] | None = None
     view = "couples"
     last_compute_ms: float | None = None
@@ -62,7 +77,7 @@ class WorkbenchLogic:
         if self.conditions is None:
             self.conditions = Conditions()
         self.query_one(ConditionsForm).set_media(sorted(solvent_table()))
-        self.app.load_problem = problem if cs is None else ""
+        self.app.load_problem = problem
         if cs is None:
             self.query_one(CoupleDetail).update(f"! {problem}")
             self.status("the library could not be read: fix the file, then ctrl+r reloads (ctrl+q quits)")
@@ -77,9 +92,19 @@ class WorkbenchLogic:
         shadowed = f", {len(cs.shadowed)} shadowed by a later layer" if cs.shadowed else ""
         self.status(f"{len(cs)} couples from {len(cs.files) or 'the given'} file(s){shadowed}")
         self.recompute()
+        if problem:
+            left_out = len({ln.split(":", 1)[0] for ln in problem.splitlines() if ln})
+            self.status(f"! {left_out} library file(s) left out, see p; {len(cs)} couples from the others")
+            if not len(cs):
+                self.query_one(CoupleDetail).update(f"! {problem}")
+            self.action_problems()
 
     def status(self, text: str) -> None:
         self.query_one("#status", Static).update(text)
+        if self.view == "couples":
+            self._couples_status = text  # shown again on coming back to the couples view
+
+    _couples_status = ""
 
     def apply_filter(self, query: str) -> None:
         if self.rows:
@@ -119,20 +144,34 @@ class WorkbenchLogic:
         self.view = vid
         self.query_one(ContentSwitcher).current = vid
         self.query_one(ViewTabs).show(vid, self.unit)
-        # Text fields are not focused on entry, so the view keys keep working; tab moves into them.
-        focus = {"couples": "#table", "map": "#heat"}.get(vid)
-        if focus:
-            self.query_one(focus).focus()
-        else:
-            self.set_focus(None)
-        if vid in ("predict", "check"):
-            self.status("tab: into the fields; esc: out of a field (then 1-6 switch views)")
+        # Text fields are not focused on entry, so the view keys keep working; tab moves into them. Focus is
+        # set at once (not after a refresh), so keys typed ahead already go where the user expects.
+        self._focus_view()
+        self.status(VIEW_HINTS.get(vid, self._couples_status))
         if vid == "map":
             self.refresh_map()
 
+    def _focus_view(self) -> None:
+        target = VIEW_FOCUS.get(self.view)
+        self.set_focus(self.query_one(target) if target else None)
+
+    def action_scroll_result(self, pages: int) -> None:
+        """PgUp / PgDn in the prediction and check views scroll the result even from inside a field."""
+        target = {"predict": "#prediction-scroll", "check": "#check-scroll"}.get(self.view)
+        if target:
+            box = self.query_one(target)
+            box.scroll_page_down() if pages > 0 else box.scroll_page_up()
+
+    def check_action(self, action: str, parameters) -> bool | None:
+        # Inside a text field '/' is text: the search binding is off there (and hidden from the footer).
+        if action == "search" and isinstance(self.focused, Input):
+            return False
+        return True
+
     def action_search(self) -> None:
-        self.action_view("couples")
-        self.query_one("#search", Input).focus()
+        if self.view != "couples":
+            self.action_view("couples")
+        self.set_focus(self.query_one("#search", Input))
 
     def action_toggle_detail(self) -> None:
         """Give the detail panel most of the couples view (and the focus, to scroll it), or give it back."""
@@ -140,17 +179,13 @@ class WorkbenchLogic:
             return
         big = not self.has_class("-detail-big")
         self.set_class(big, "-detail-big")
-        self.query_one("#detail-scroll" if big else "#table").focus()
+        self.set_focus(self.query_one("#detail-scroll" if big else "#table"))
 
     def action_leave_input(self) -> None:
         if self.has_class("-detail-big"):
             self.action_toggle_detail()
             return
-        target = {"couples": "#table", "map": "#heat"}.get(self.view)
-        if target:
-            self.query_one(target).focus()
-        else:
-            self.set_focus(None)
+        self._focus_view()
 
     def action_cycle_unit(self) -> None:
         self.unit = next_unit(self.unit)
@@ -203,7 +238,15 @@ class WorkbenchLogic:
             note = f"showing the last good prediction ({p.oxidant} + {p.reductant})"
             if self.problem:
                 note = f"! {self.problem}\n{note}"
-        self.query_one(PairBar).show(self.oxidant, self.reductant, p if self._prediction_is_current() else None, self.problem)
+        elif p is None and self.problem:
+            note = f"! {self.problem}"
+        elif p is None and (self.oxidant or self.reductant):
+            note = "Now set the " + ("reductant (r)" if self.oxidant else "oxidant (o)") + " in the couples table (1)."
+        if p is not None and self._prediction_is_current() and self.cond_problem:
+            note = f"! {self.cond_problem}: shown for the last good conditions"
+        current = self._prediction_is_current()
+        self.query_one(PairBar).show(self.oxidant, self.reductant, p if current else None, self.problem,
+                                     self.cond_problem if current else "")
         self.query_one(PredictionPanel).show(p, self.unit, note)
         self.refresh_curves()
         self.refresh_check()
@@ -269,14 +312,34 @@ class WorkbenchLogic:
         except CrossrateError as exc:
             return None, str(exc)
 
+    def explain_pair(self, ox: str, red: str) -> str:
+        """Why a pair of the map gives no value (the service's message), "" when it does."""
+        from ...services.prediction import predict
+
+        try:
+            predict(self.couple_set, ox, red, self.conditions, samples=0)
+        except CrossrateError as exc:
+            return tui_wording(str(exc))
+        return ""
+
     def map_ready(self, ids, values, note: str) -> None:
         heat = self.query_one(HeatMap)
+        heat.explain = self.explain_pair
         if values is None:
             heat.message(f"! {note}")
         else:
             heat.show(ids, values, note)
 
     # -- other screens ----------------------------------------------------------------------------------
+    def action_problems(self) -> None:
+        """List the problems of the library files that were left out (or say there are none)."""
+        from .problems_screen import ProblemsScreen
+
+        if not self.app.load_problem:
+            self.status("every library file was read")
+            return
+        self.app.push_screen(ProblemsScreen(self.app.load_problem, len(self.couple_set or ())))
+
     def action_help(self) -> None:
         from .help_screen import HelpScreen
 
@@ -284,3 +347,6 @@ class WorkbenchLogic:
 
     def action_sort_table(self) -> None:
         self.query_one(CoupleTable).action_cycle_sort()
+
+    def action_reverse_sort(self) -> None:
+        self.query_one(CoupleTable).action_reverse_sort()

@@ -35,7 +35,7 @@ class CheckPanel(Vertical):
             yield Input("", placeholder="e.g. 3.5e4", id="check-k", compact=True)
             yield Label("  log10 SD ")
             yield Input("", placeholder="optional", id="check-sd", compact=True)
-        with VerticalScroll():
+        with VerticalScroll(id="check-scroll"):
             yield Static("", id="check-result", markup=False)
 
     def on_input_changed(self, event: Input.Changed) -> None:

@@ -22,6 +22,13 @@ class ConditionsForm(Vertical):
             self.conditions = conditions
             super().__init__()
 
+    class Invalid(Message):
+        """A field holds a bad value: `problem` says which and what was expected."""
+
+        def __init__(self, problem: str):
+            self.problem = problem
+            super().__init__()
+
     def compose(self) -> ComposeResult:
         yield Label("temperature (K)")
         yield Input("298.15", id="cond-T", compact=True)
@@ -43,6 +50,9 @@ class ConditionsForm(Vertical):
         s = box.value.strip()
         if not s and blank_ok:
             return None
+        if not s:
+            box.add_class("-bad")
+            raise ConditionsError(f"{label}: empty; expected a number ({unit})")
         try:
             v = float(s)
         except ValueError:
@@ -82,6 +92,7 @@ class ConditionsForm(Vertical):
         except ConditionsError as exc:
             msg.update(f"! {exc}; the last good prediction is kept")
             msg.add_class("-bad")
+            self.post_message(self.Invalid(str(exc)))
             return
         msg.update("")
         msg.remove_class("-bad")

@@ -4,6 +4,9 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING
 
+from rich.console import Group
+from rich.padding import Padding
+from rich.table import Table
 from rich.text import Text
 from textual.widgets import Static
 
@@ -14,7 +17,9 @@ if TYPE_CHECKING:
 from ...library.schema import FIELDS_BY_NAME
 
 
-def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None) -> Text:
+def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None) -> Group:
+    """The couple in full: a head (id, name, E, where it was read), then one row per field (long values wrap
+    inside their column), then the reorganization-energy breakdown."""
     t = Text()
     t.append(f"{c.id}", style="bold")
     t.append(f"  {c.name}\n")
@@ -24,12 +29,14 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     t.append(f"E = {c.E:+.3f} V vs {c.E_scale}")
     if c.E_scale != root or c.effective_E != c.E:
         t.append(f"  (reacting form {E_root:+.3f} V on {root})")
-    t.append("\n")
     if c.origin is not None:
-        t.append(f"from {c.origin.path}:{c.origin.line}  (layer {c.origin.layer})\n", style="dim")
+        t.append(f"\nfrom {c.origin.path}:{c.origin.line}  (layer {c.origin.layer})", style="dim")
     for sh in cs.shadowed:
         if sh.couple_id == c.id:
-            t.append(f"shadows {sh.hidden.path}:{sh.hidden.line}\n", style="dim")
+            t.append(f"\nshadows {sh.hidden.path}:{sh.hidden.line}", style="dim")
+    fields = Table.grid(padding=(0, 1))
+    fields.add_column(style="bold", no_wrap=True, min_width=15)
+    fields.add_column()
     for name in COUPLE_FIELDS:
         if name in ("name", "E", "E_scale"):
             continue
@@ -37,20 +44,23 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
         if v is None or v == () or v == "":
             continue
         if name == "bonds":
-            v = "; ".join(f"{b.count} x dd {b.delta_d:g} A, f {b.f_ox:g}/{b.f_red:g} N/m" for b in v)
+            v = "; ".join(f"{b.count} × Δd {b.delta_d:g} Å, f {b.f_ox:g}/{b.f_red:g} N/m" for b in v)
         elif name == "tags":
             v = ", ".join(v)
         elif isinstance(v, bool):
             v = "true" if v else "false"
-        t.append(f"{name:<16}", style="bold")
         spec = FIELDS_BY_NAME.get(name)
         unit = f" {spec.unit}" if spec is not None and spec.unit and name != "bonds" else ""
-        t.append(f"{v}{unit}\n")
+        fields.add_row(name, f"{v}{unit}")
+    parts = [t, fields]
     if lambda_lines:
-        t.append("reorganization energy\n", style="bold")
+        parts.append(Text("reorganization energy", style="bold"))
+        lam = Table.grid()
+        lam.add_column()
         for ln in lambda_lines:
-            t.append(f"  {ln}\n")
-    return t
+            lam.add_row(ln)
+        parts.append(Padding(lam, (0, 0, 0, 2)))  # indented, and wrapped lines keep the indent
+    return Group(*parts)
 
 
 class CoupleDetail(Static):

@@ -7,7 +7,7 @@ from textual.message import Message
 from textual.widgets import Input, Label, Static
 
 from ...library.couple import Couple
-from ...library.schema import FIELD_SPECS, parse_field_text
+from ...library.schema import FIELD_SPECS, FIELDS_BY_NAME, parse_field_text
 
 
 def field_text(c: Couple | None, name: str) -> str:
@@ -74,7 +74,7 @@ class CoupleForm(VerticalScroll):
                 mark = "*" if spec.required and not spec.library_default else " "
                 yield Label(f"{mark}{spec.label}", classes="form-label")
                 yield Input(field_text(self._couple, spec.name), id=f"f-{spec.name}", compact=True,
-                            placeholder=spec.help[:60], tooltip=spec.help)
+                            placeholder=f"(empty) {spec.help}"[:70], tooltip=spec.help)
             yield Static("", id=f"m-{spec.name}", classes="form-message", markup=False)
 
     def _field_of(self, input_id: str) -> str:
@@ -93,6 +93,9 @@ class CoupleForm(VerticalScroll):
             msg = bad_id_message(text.strip())
         else:
             _v, msg = check_text_value(name, text)
+            spec = FIELDS_BY_NAME[name]
+            if msg is None and not text.strip() and spec.required and not spec.library_default:
+                msg = f"required: {spec.help}"
         box = self.query_one(f"#f-{name}", Input)
         note = self.query_one(f"#m-{name}", Static)
         box.set_class(bool(msg), "-bad")

@@ -14,6 +14,14 @@ from textual.widget import Widget
 
 from .couple_rows import COLUMNS, CoupleRow
 
+MEDIUM = next(k for k, c in enumerate(COLUMNS) if c.title == "medium")
+MEDIUM_MAX = 15  # columns
+
+
+def fit(text: str, width: int) -> str:
+    """text cut to width, a cut shown by a final '…' (so a long id is not taken for a shorter one)."""
+    return text if len(text) <= width else text[: max(0, width - 1)] + "…"
+
 
 @dataclass(frozen=True)
 class SortKey:
@@ -31,7 +39,7 @@ class CoupleTable(Widget, can_focus=True):
         Binding("pagedown", "page(1)", "page down", show=False),
         Binding("home", "jump(0)", "first", show=False),
         Binding("end", "jump(-1)", "last", show=False),
-        Binding("s", "cycle_sort", "sort"),
+        Binding("s", "cycle_sort", "sort", show=False),
         Binding("S", "reverse_sort", "reverse", show=False),
     ]
 
@@ -58,13 +66,15 @@ class CoupleTable(Widget, can_focus=True):
         keep = self.current_id
         self._rows = rows
         self._shown = []
-        self.show_indices(list(range(len(rows))) if shown is None else shown, keep=keep)
+        # After a reload without the highlighted couple (deleted), the cursor stays where it was.
+        self.show_indices(list(range(len(rows))) if shown is None else shown, keep=keep, fallback=self.cursor)
 
-    def show_indices(self, shown: list[int], keep: str | None = None) -> None:
-        """Show these row indices (sorted by the current sort), keeping couple `keep` highlighted if shown."""
+    def show_indices(self, shown: list[int], keep: str | None = None, fallback: int = 0) -> None:
+        """Show these row indices (sorted by the current sort), keeping couple `keep` highlighted if shown,
+        else the row at `fallback` (the first match of a filter by default)."""
         keep = keep if keep is not None else self.current_id
         self._shown = self._sorted(shown)
-        pos = 0
+        pos = fallback
         if keep is not None:
             for k, i in enumerate(self._shown):
                 if self._rows[i].couple_id == keep:
@@ -154,7 +164,10 @@ class CoupleTable(Widget, can_focus=True):
     def _widths(self, total: int) -> list[int]:
         fixed = [c.width for c in COLUMNS]
         flex = max(8, total - sum(w for w in fixed if w) - len(COLUMNS))
-        return [w or flex for w in fixed]
+        # On a wide terminal long solvent names (dichloromethane) are shown whole; the name keeps 30 or more.
+        grow = min(MEDIUM_MAX - fixed[MEDIUM], max(0, flex - 30))
+        fixed[MEDIUM] += grow
+        return [w or flex - grow for w in fixed]
 
     def render(self) -> Text:
         width = self.size.width
@@ -175,7 +188,7 @@ class CoupleTable(Widget, can_focus=True):
         for pos in range(self._top, end):
             row = self._rows[self._shown[pos]]
             cells = [
-                (v[:w].rjust(w) if col.right else v[:w].ljust(w))
+                (fit(v, w).rjust(w) if col.right else fit(v, w).ljust(w))
                 for v, col, w in zip(row.cells, COLUMNS, widths, strict=True)
             ]
             line = " ".join(cells)[:width].ljust(width)

@@ -53,13 +53,15 @@ def energy_lines(s: EnergySurfaces, width: int, height: int, unit: str, note: st
     for x in (0.0, 1.0):
         c, _ = cv.cell_of(x, y0)
         axis[c] = "┬"
-    out.append(" " * (AXIS - 1) + "└" + "".join(axis) + "\n", style="dim")
+    out.append(" " * (AXIS - 1))  # plain indent: see rate_curve_plot
+    out.append("└" + "".join(axis) + "\n", style="dim")
     labels = [" "] * cols
     for x, name in ((0.0, "reactants"), (1.0, "products")):
         c, _ = cv.cell_of(x, y0)
         start = max(0, min(cols - len(name), c - len(name) // 2))
         labels[start : start + len(name)] = list(name)
-    out.append(" " * AXIS + "".join(labels) + "\n", style="dim")
+    out.append(" " * AXIS)
+    out.append("".join(labels) + "\n", style="dim")
     nums = (
         f"λ {lam:.3g}  ΔG°' {dG:+.3g}  ΔG‡ {s.dG_act_kJ * f:.3g} = w12 {s.w12_kJ * f:.2g} + barrier {g_star:.3g} {unit}"
     )

@@ -55,9 +55,13 @@ class HeatMap(Widget, can_focus=True):
         self._note = "The map of the couples in view appears here."
         self.row = self.col = 0
         self._top = self._left = 0
+        #: explain(oxidant, reductant) -> why a pair gives no value (set by the screen; asked once per cell).
+        self.explain = None
+        self._why: dict[tuple[str, str], str] = {}
 
     def show(self, ids, values, note: str = "") -> None:
         self._ids, self._values, self._note = tuple(ids), values, note
+        self._why = {}
         self.row = min(self.row, max(0, len(self._ids) - 1))
         self.col = min(self.col, max(0, len(self._ids) - 1))
         self.refresh()
@@ -67,7 +71,8 @@ class HeatMap(Widget, can_focus=True):
         self.refresh()
 
     def _view(self) -> tuple[int, int]:
-        return max(1, self.size.height - 5), max(1, (self.size.width - LABEL) // CELL)
+        # Two header rows, then the value line and the legend (each may take two lines).
+        return max(1, self.size.height - 6), max(1, (self.size.width - LABEL) // CELL)
 
     def action_move(self, dr: int, dc: int) -> None:
         n = len(self._ids)
@@ -93,6 +98,15 @@ class HeatMap(Widget, can_focus=True):
                 self.action_choose()
             self.row, self.col = i, j
             self.refresh()
+
+    def _reason(self, ox: str, red: str) -> str:
+        if self.explain is None:
+            return ""
+        if (ox, red) not in self._why:
+            why = self.explain(ox, red)
+            # The first clause says what is wrong; the pair bar gives the whole message once it is the pair.
+            self._why[(ox, red)] = f": {why.split(';')[0]}" if why else ""
+        return self._why[(ox, red)]
 
     @property
     def cell(self) -> tuple[str, str] | None:
@@ -135,10 +149,10 @@ class HeatMap(Widget, can_focus=True):
             out.append("\n")
         ox, red = self._ids[self.row], self._ids[self.col]
         v = float(self._values[self.row, self.col])
-        value = f"k_obs 10^{v:.2f} M⁻¹ s⁻¹" if math.isfinite(v) else "not computable"
+        value = f"k_obs 10^{v:.2f} M⁻¹ s⁻¹" if math.isfinite(v) else f"not computable{self._reason(ox, red)}"
         out.append(f"{ox} + {red}: {value}   (enter: set as pair)\n", style="bold")
         out.append(
-            f"decade of k_obs: 0-9 = 10⁰-10⁹, A B C = 10¹⁰-10¹², a-i = 10⁻¹-10⁻⁹, · none. {self._note}",
+            f"decade of k_obs: 0-9 = 10⁰-10⁹, A B C = 10¹⁰-10¹², a-i = 10⁻¹-10⁻⁹, · not computable. {self._note}",
             style="dim",
         )
         return out

@@ -10,7 +10,8 @@ from ..units import rate_text
 class PairBar(Static):
     """Two lines: the pair, then k_obs with interval and regime (or the current problem)."""
 
-    def show(self, ox: str | None, red: str | None, p: Prediction | None, problem: str = "") -> None:
+    def show(self, ox: str | None, red: str | None, p: Prediction | None, problem: str = "", stale: str = "") -> None:
+        """stale: why the conditions form gives no new prediction (p is then the last good one)."""
         t = Text()
         t.append("oxidant ", style="dim")
         t.append(ox or "(o)", style="bold")
@@ -30,4 +31,6 @@ class PairBar(Static):
                 lo, hi = p.log10_k_obs_95
                 t.append(f"  95 % {rate_text(lo)}..{rate_text(hi)}")
             t.append(f"  {p.regime}" + (", diffusion-controlled" if p.diffusion_controlled else ""))
+            if stale:
+                t.append(f"\n! {stale}; k_obs above is for the last good conditions", style="bold")
         self.update(t)

@@ -8,6 +8,15 @@ from ..units import energy_text, rate_text
 
 K_UNIT = "M⁻¹ s⁻¹"
 
+#: The services write plain ASCII (for logs and the CLI); the workbench shows the symbols of its own lines.
+SYMBOLS = (("Delta G deg'", "ΔG°'"), ("Delta G deg", "ΔG°"), ("lambda", "λ"))
+
+
+def with_symbols(text: str) -> str:
+    for ascii_name, symbol in SYMBOLS:
+        text = text.replace(ascii_name, symbol)
+    return text
+
 
 def prediction_text(p: Prediction, unit: str, note: str = "") -> Text:
     """The full prediction as display text (energies in `unit`, rates in M^-1 s^-1)."""
@@ -23,6 +32,25 @@ def prediction_text(p: Prediction, unit: str, note: str = "") -> Text:
     t.append("   (Ox1 + Red2 -> Red1 + Ox2)\n")
     if note:
         t.append(note + "\n", style="italic")
+    # The answer first (k_obs, interval, regime, warnings), so it is on screen at 80x24; how it was
+    # obtained follows, reachable by scrolling.
+    line("k_obs", f"{rate_text(p.log10_k_obs)} {K_UNIT}  (log10 {p.log10_k_obs:.2f})", "bold")
+    if p.log10_k_obs_95 is not None:
+        lo, hi = p.log10_k_obs_95
+        line("95 %", f"{rate_text(lo)} to {rate_text(hi)}  (Monte Carlo, {p.samples} draws)")
+    else:
+        line("95 %", f"working... (linear SD {p.log10_k_obs_sd_linear:.2f} in log10)", "italic")
+    line("regime", p.regime + (", diffusion-controlled" if p.diffusion_controlled else ""), "bold")
+    t.append(f"  {with_symbols(p.regime_explanation)}\n")
+    if p.warnings:
+        t.append("warnings\n", style="bold")
+        for wtext in p.warnings:
+            t.append(f"  ! {with_symbols(wtext)}\n")
+    if p.estimated:
+        t.append("estimated\n", style="bold")
+        for e in p.estimated:
+            t.append(f"  ~ {e}\n")
+    t.append("how it was obtained\n", style="bold underline")
     line("conditions", f"{c.temperature_K:g} K, I = {c.ionic_strength_M:g} M, {c.medium}")
     line("", f"eps {c.relative_permittivity:.2f}, eta {c.viscosity_mPa_s:.3g} mPa s, n {c.refractive_index:.3f}")
     line("", f"Z = {c.Z:.2g} {K_UNIT}, diffusion cap {'on' if c.diffusion else 'off'}")
@@ -39,22 +67,6 @@ def prediction_text(p: Prediction, unit: str, note: str = "") -> Text:
     line("k11, k22", f"{rate_text(p.log10_k11)}, {rate_text(p.log10_k22)} {K_UNIT} (at these conditions)")
     line("k_act", f"{rate_text(p.log10_k_act)} {K_UNIT}")
     line("k_D", f"{rate_text(p.log10_k_diff)} {K_UNIT}")
-    line("k_obs", f"{rate_text(p.log10_k_obs)} {K_UNIT}  (log10 {p.log10_k_obs:.2f})", "bold")
-    if p.log10_k_obs_95 is not None:
-        lo, hi = p.log10_k_obs_95
-        line("95 %", f"{rate_text(lo)} to {rate_text(hi)}  (Monte Carlo, {p.samples} draws)")
-    else:
-        line("95 %", f"working... (linear SD {p.log10_k_obs_sd_linear:.2f} in log10)", "italic")
-    line("regime", p.regime + (", diffusion-controlled" if p.diffusion_controlled else ""), "bold")
-    t.append(f"  {p.regime_explanation}\n")
-    if p.warnings:
-        t.append("warnings\n", style="bold")
-        for wtext in p.warnings:
-            t.append(f"  ! {wtext}\n")
-    if p.estimated:
-        t.append("estimated\n", style="bold")
-        for e in p.estimated:
-            t.append(f"  ~ {e}\n")
     return t
 
 
@@ -63,6 +75,6 @@ class PredictionPanel(Static):
 
     def show(self, p: Prediction | None, unit: str, note: str = "") -> None:
         if p is None:
-            self.update(Text("No pair yet. In the couples table press o to set the oxidant, r the reductant."))
+            self.update(Text(note or "No pair yet. In the couples table press o to set the oxidant, r the reductant."))
         else:
             self.update(prediction_text(p, unit, note))

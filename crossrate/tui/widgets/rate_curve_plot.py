@@ -36,7 +36,7 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
     # Show the curve down to 14 decades below its top, and always the pair and the measured value.
     bottom = max(math.floor(min(act)), top - 14)
     bottom = min(bottom, math.floor(min(extras)) - 1)
-    cols, rows = max(10, width - AXIS - 1), max(4, height - 4)
+    cols, rows = max(10, width - AXIS - 1), max(4, height - 5)
     cv = BrailleCanvas(cols, rows, xs[0], xs[-1], bottom, top)
     for reg in curve.regions[1:]:
         cv.vline(reg.low_kJ * f, "dim", every=2)
@@ -44,15 +44,20 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
         cv.hline(curve.log10_k_diff, "dim", every=4)
     cv.line(xs, act, "yellow", every=2)
     cv.line(xs, obs, "cyan")
+    # Region names on a line of their own above the plot, so they never hide the top of the curve.
+    names = [" "] * cols
     for reg in curve.regions:
         c0, _ = cv.cell_of(reg.low_kJ * f, top)
         c1, _ = cv.cell_of(reg.high_kJ * f, top)
         name = reg.name if c1 - c0 > len(reg.name) + 1 else SHORT[reg.name]
         if c1 - c0 > len(name):
-            cv.text(c0 + max(0, (c1 - c0 - len(name)) // 2), 0, name, "italic")
-    cv.mark(curve.pair_x_kJ * f, curve.pair_log10_k_obs, "●", "bold")
+            start = c0 + max(0, (c1 - c0 - len(name)) // 2)
+            names[start : start + len(name)] = list(name)
+    pair_cell = cv.mark(curve.pair_x_kJ * f, curve.pair_log10_k_obs, "●", "bold")
     if measured is not None:
-        cv.mark(curve.pair_x_kJ * f, measured, "x", "bold reverse")
+        c, r = cv.cell_of(curve.pair_x_kJ * f, measured)
+        # Measured close to predicted: both marks stay visible, the x just right of the dot.
+        cv.text(c + 1 if (c, r) == pair_cell else c, r, "x", "bold reverse")
     body = cv.to_lines()
 
     # Decades only (whole powers of ten), as many as fit with a blank row between labels.
@@ -62,6 +67,9 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
     out = Text(no_wrap=True, overflow="crop")
     out.append(note or f"k / M⁻¹ s⁻¹ against -ΔG°' ({unit});  λ12 = {curve.lambda_kJ * f:.3g} {unit}", style="bold")
     out.append("\n")
+    # Indents as separate plain segments: SVG renderers that collapse leading spaces keep the columns.
+    out.append(" " * (AXIS + 1))
+    out.append("".join(names) + "\n", style="italic")
     for r, line in enumerate(body):
         label = power_of_ten(y_ticks[r]) if r in y_ticks else ""
         out.append(f"{label:>{AXIS - 1}} ┤" if label else " " * (AXIS - 1) + " │", style="dim")
@@ -76,8 +84,10 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
         start = max(0, min(cols - len(s), c - len(s) // 2))
         if all(ch == " " for ch in labels[max(0, start - 1) : start + len(s) + 1]):
             labels[start : start + len(s)] = list(s)
-    out.append(" " * AXIS + "└" + "".join(axis)[: cols - 1] + "\n", style="dim")
-    out.append(" " * (AXIS + 1) + "".join(labels) + "\n", style="dim")
+    out.append(" " * AXIS)
+    out.append("└" + "".join(axis)[: cols - 1] + "\n", style="dim")
+    out.append(" " * (AXIS + 1))
+    out.append("".join(labels) + "\n", style="dim")
     legend = "── k_obs (diffusion-capped)  ··· k_act  ● this pair" + ("  x measured" if measured is not None else "")
     if curve.log10_k_diff is not None:
         legend += "  - - k_D"

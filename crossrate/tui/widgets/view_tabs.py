@@ -22,6 +22,6 @@ class ViewTabs(Static):
                 t.append(f"[{key} {title}]", style="bold reverse")
             else:
                 t.append(f" {key} {title} ", style="dim")
-            t.append(" ")
+        # The energy unit stays on this line even at 80 columns (nothing else says which one is in use).
         t.append(f"  {unit}", style="dim")
         self.update(t)
