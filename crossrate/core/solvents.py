@@ -89,3 +89,18 @@ def get_solvent(key: str) -> Solvent:
         return table[key]
     except KeyError:
         raise KeyError(f"unknown medium {key!r}; known media: {', '.join(sorted(table))}") from None
+
+
+def per_medium(media, T_K, quantity: str) -> np.ndarray:
+    """One solvent quantity for each entry of `media` (solvent keys) at T_K (K, broadcast), as an array.
+
+    quantity: a Solvent method taking T_K, 'permittivity' (dimensionless), 'viscosity_Pa_s' (Pa s) or
+    'pekar_factor' (dimensionless). One table look-up per distinct medium, so long arrays stay cheap.
+    """
+    media = np.asarray(media, dtype=object)
+    T = np.broadcast_to(np.asarray(T_K, dtype=float), media.shape)
+    out = np.empty(media.shape, dtype=float)
+    for m in set(media.tolist()):
+        sel = media == m
+        out[sel] = getattr(get_solvent(m), quantity)(T[sel])
+    return out

@@ -40,3 +40,18 @@ class Conditions:
     def with_(self, **changes) -> "Conditions":
         """A copy with some fields changed (validated again)."""
         return replace(self, **changes)
+
+
+def row_conditions(base: Conditions, row) -> Conditions:
+    """`base` with a CSV row's own temperature (K), ionic strength (mol/L) and medium put in, where it has them.
+
+    row: any record with optional attributes temperature, ionic_strength and medium (None when the cell is empty).
+    """
+    changes = {}
+    if row.temperature is not None:
+        changes["temperature_K"] = row.temperature
+    if row.ionic_strength is not None:
+        changes["ionic_strength_M"] = row.ionic_strength
+    if row.medium is not None:
+        changes["medium"] = row.medium
+    return base.with_(**changes) if changes else base

@@ -13,7 +13,7 @@ import numpy as np
 
 from ..core.constants import ANGSTROM, KJ
 from ..core.reorganization import self_exchange_inner_lambda
-from ..core.solvents import get_solvent
+from ..core.solvents import per_medium
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
 
@@ -91,14 +91,5 @@ def lambda_columns(couple_set: CoupleSet) -> LambdaColumns:
 
 
 def pekar_for_media(media, T_K) -> np.ndarray:
-    """Pekar factor 1/n^2 - 1/eps_s per entry of `media` (solvent keys) at temperatures T_K (K, broadcast).
-
-    One table look-up per distinct medium, so long arrays of repeated keys stay cheap.
-    """
-    media = np.asarray(media, dtype=object)
-    T = np.broadcast_to(np.asarray(T_K, dtype=float), media.shape)
-    out = np.empty(media.shape, dtype=float)
-    for m in set(media.tolist()):
-        sel = media == m
-        out[sel] = get_solvent(m).pekar_factor(T[sel])
-    return out
+    """Pekar factor 1/n^2 - 1/eps_s per entry of `media` (solvent keys) at temperatures T_K (K, broadcast)."""
+    return per_medium(media, T_K, "pekar_factor")

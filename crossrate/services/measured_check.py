@@ -18,7 +18,7 @@ import numpy as np
 from ..errors import ConditionsError, InputFileError, ScienceError, UnknownCoupleError
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
-from .conditions import Conditions
+from .conditions import Conditions, row_conditions
 from .likely_causes import likely_causes
 from .measured_csv import MeasuredRow
 from .prediction import predict
@@ -231,18 +231,6 @@ def summarize(rows, n_worst: int = 3) -> CheckSummary:
         fraction_within_10x=float(np.mean(a <= math.log10(WITHIN_FACTOR))) if len(a) else 0.0,
         worst=tuple((rows[i].line, rows[i].oxidant, rows[i].reductant, rows[i].log10_ratio) for i in order.tolist()),
     )
-
-
-def row_conditions(base: Conditions, row: MeasuredRow) -> Conditions:
-    """The command's conditions with the row's own temperature, ionic strength and medium put in."""
-    changes = {}
-    if row.temperature is not None:
-        changes["temperature_K"] = row.temperature
-    if row.ionic_strength is not None:
-        changes["ionic_strength_M"] = row.ionic_strength
-    if row.medium is not None:
-        changes["medium"] = row.medium
-    return base.with_(**changes) if changes else base
 
 
 def check_measured(

@@ -27,7 +27,7 @@ from ..core.barrier import self_exchange_lambda, self_exchange_ln_k
 from ..core.condition_transfer import carry_ln_k_self
 from ..core.constants import ANGSTROM, GAS_CONSTANT, KJ
 from ..core.reorganization import self_exchange_outer_lambda
-from ..core.solvents import get_solvent
+from ..core.solvents import get_solvent, per_medium
 from ..core.work_terms import work_term
 from ..library.couple_set import CoupleSet
 from .couple_lambda import (
@@ -149,14 +149,7 @@ def _describe(se: SelfExchangeAt, k: int) -> str:
 
 
 def _per_couple_permittivity(mediums, T0):
-    # One table look-up per distinct medium (a per-couple Python loop cost ~20 ms per 10,000 couples).
-    mediums = np.asarray(mediums, dtype=object)
-    T0 = np.broadcast_to(np.asarray(T0, dtype=float), mediums.shape)
-    out = np.empty(mediums.shape, dtype=float)
-    for m in set(mediums.tolist()):
-        sel = mediums == m
-        out[sel] = get_solvent(m).permittivity(T0[sel])
-    return out
+    return per_medium(mediums, T0, "permittivity")
 
 
 def _target_media(a, idx, medium):

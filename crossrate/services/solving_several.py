@@ -15,7 +15,7 @@ import numpy as np
 
 from ..errors import ConditionsError, InputFileError, ScienceError, UnknownCoupleError
 from ..library.couple_set import CoupleSet
-from .conditions import Conditions
+from .conditions import Conditions, row_conditions
 from .measured_check import Z95
 from .measured_csv import PartnerRow
 from .results import _Record, json_safe
@@ -66,17 +66,6 @@ class SeveralSolution(_Record):
         else:
             d.update(E_V=[self.estimate], E_V_95=[list(self.estimate_95)])
         return json_safe(d)
-
-
-def _row_conditions(base: Conditions, r: PartnerRow) -> Conditions:
-    changes = {}
-    if r.temperature is not None:
-        changes["temperature_K"] = r.temperature
-    if r.ionic_strength is not None:
-        changes["ionic_strength_M"] = r.ionic_strength
-    if r.medium is not None:
-        changes["medium"] = r.medium
-    return base.with_(**changes) if changes else base
 
 
 def _weighted(v, sd):
@@ -147,7 +136,7 @@ def solve_several(
     for r in rows:
         try:
             s = solver(couple_set, unknown, r.partner, r.k_measured, r.k_measured_log10_sd,
-                       role=r.role or default_role, conditions=_row_conditions(base, r))
+                       role=r.role or default_role, conditions=row_conditions(base, r))
         except UnknownCoupleError as exc:
             problems.append(f"{r.path}:{r.line}: field partner: {exc}")
             continue
