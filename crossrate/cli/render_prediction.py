@@ -6,6 +6,7 @@ deterministic (the golden tests compare it).
 
 import sys
 
+from ..services.wording import with_symbols
 from .render_common import (
     CLOSING_CAUTION,
     fmt_fixed,
@@ -106,8 +107,9 @@ def plain_prediction(p, sym: dict[str, str]) -> str:
         for label, value, unit, note in rows:
             lines.extend(labelled_row(label, value, unit, note, WIDTHS))
         lines.append("")
+    say = _speaker(sym)
     lines.append("Regime")
-    lines.extend(wrap_item(f"{p.regime}: {p.regime_explanation}", bullet=""))
+    lines.extend(wrap_item(f"{p.regime}: {say(p.regime_explanation)}", bullet=""))
     lines.extend(wrap_item(
         "diffusion-controlled: " + ("yes (k_obs is close to k_D)" if p.diffusion_controlled else "no"), bullet=""
     ))
@@ -115,12 +117,17 @@ def plain_prediction(p, sym: dict[str, str]) -> str:
     lines.append("Warnings")
     if p.warnings:
         for text in p.warnings:
-            lines.extend(wrap_item(text))
+            lines.extend(wrap_item(say(text)))
     else:
         lines.append("  (none)")
     lines.append("")
     lines.extend(wrap_line(CLOSING_CAUTION))
     return "\n".join(lines) + "\n"
+
+
+def _speaker(sym: dict[str, str]):
+    """The services' ASCII wording with ΔG°' and λ where the stream can show them."""
+    return with_symbols if sym["lambda"] == "λ" else str
 
 
 def _rich_prediction(p, stream) -> None:
@@ -135,7 +142,8 @@ def _rich_prediction(p, stream) -> None:
     print_rich_sections(console, prediction_sections(p, sym), WIDTHS, "k_obs")
     console.print()
     console.print(Text("Regime", style="bold underline"))
-    first, *rest = wrap_item(f"{p.regime}: {p.regime_explanation}", bullet="")
+    say = _speaker(sym)
+    first, *rest = wrap_item(f"{p.regime}: {say(p.regime_explanation)}", bullet="")
     console.print(Text.assemble("  ", (p.regime, "bold magenta"), first[2 + len(p.regime):]))
     for line in rest:
         console.print(line)
@@ -144,7 +152,7 @@ def _rich_prediction(p, stream) -> None:
         console.print()
         console.print(Text("Warnings", style="bold yellow"))
         for text in p.warnings:
-            for line in wrap_item(text):
+            for line in wrap_item(say(text)):
                 console.print(Text(line, style="yellow"))
     console.print()
     console.print(Text(CLOSING_CAUTION, style="italic"))

@@ -4,18 +4,10 @@ from rich.text import Text
 from textual.widgets import Static
 
 from ...services.results import Prediction
+from ...services.wording import with_symbols
 from ..units import energy_text, rate_text
 
 K_UNIT = "M⁻¹ s⁻¹"
-
-#: The services write plain ASCII (for logs and the CLI); the workbench shows the symbols of its own lines.
-SYMBOLS = (("Delta G deg'", "ΔG°'"), ("Delta G deg", "ΔG°"), ("lambda", "λ"))
-
-
-def with_symbols(text: str) -> str:
-    for ascii_name, symbol in SYMBOLS:
-        text = text.replace(ascii_name, symbol)
-    return text
 
 
 def prediction_text(p: Prediction, unit: str, note: str = "") -> Text:
