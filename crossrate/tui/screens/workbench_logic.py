@@ -91,7 +91,12 @@ class WorkbenchLogic:
             self.reductant = self.reductant if self.reductant in cs else None
         shadowed = f", {len(cs.shadowed)} shadowed by a later layer" if cs.shadowed else ""
         self.status(f"{len(cs)} couples from {len(cs.files) or 'the given'} file(s){shadowed}")
+        # Every pane that shows a couple shows what the files now hold: the table keeps its cursor (so it
+        # announces no new highlight), hence the detail, the prediction and the map are redrawn here.
+        self.show_detail(table.current_id)
         self.recompute()
+        if self.view == "map":
+            self.refresh_map()
         if problem:
             left_out = len({ln.split(":", 1)[0] for ln in problem.splitlines() if ln})
             self.status(f"! {left_out} library file(s) left out, see p; {len(cs)} couples from the others")
