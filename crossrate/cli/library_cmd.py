@@ -30,7 +30,9 @@ def register(subparsers) -> None:
     lib.set_defaults(func=lambda args: _no_action(lib))
     sub = lib.add_subparsers(dest="library_command", metavar="ACTION")
 
-    p = sub.add_parser("validate", help="check library files; exit 0 when all are valid, 2 otherwise")
+    p = sub.add_parser("validate", help="check library files; exit 0 when all are valid, 2 otherwise",
+                       description="Check library files as the other commands read them: on top of the bundled, "
+                       "group and personal libraries (their potential scales may be used, not redefined).")
     p.add_argument("files", nargs="+", metavar="FILE", help="library TOML file(s); every problem is listed as "
                    "file:line: couple: field: what was expected")
     p.set_defaults(func=run_validate)
@@ -113,21 +115,22 @@ def _bundled_scales() -> dict:
 
 
 def run_validate(args) -> int:
-    from ..library.toml_reader import read_library_file
+    from ..library.layered_validation import layered_context, validate_in_context
 
-    known = _bundled_scales()
+    # Each file is judged on top of the layers the other commands put under it (bundled, group, personal).
+    context = layered_context(exclude=args.files)
+    where = context.describe()
     n_bad = n_problems = 0
     for f in args.files:
         try:
-            lf = read_library_file(f, "cli", known_scales=known)
+            lf = validate_in_context(f, context)
         except LibraryError as exc:
             n_bad += 1
             n_problems += len(exc.problems)
             for prob in exc.problems:
                 print(prob, file=sys.stderr)
             continue
-        known.update(lf.scales)
-        print(f"{f}: valid ({len(lf.couples)} couples)")
+        print(f"{f}: valid ({len(lf.couples)} couples; checked on top of {where})")
     if n_bad:
         print(f"crossrate: {n_problems} problem{'s' if n_problems != 1 else ''} in {n_bad} "
               f"file{'s' if n_bad != 1 else ''}", file=sys.stderr)

@@ -117,7 +117,8 @@ def layer_files(extra_paths=(), bundled: bool = True, group: bool = True, person
     return out
 
 
-def _scale_conflicts(lf: LibraryFile, merged: dict[str, tuple[PotentialScale, str]]) -> list[Problem]:
+def scale_conflicts(lf: LibraryFile, merged: dict[str, tuple[PotentialScale, str]]) -> list[Problem]:
+    """Problems for each scale key of lf that merged (key -> (scale, defining file)) defines differently."""
     problems = []
     for key, sc in lf.scales.items():
         if key in merged:
@@ -170,7 +171,7 @@ def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = Tru
         except LibraryError as exc:
             problems.extend(exc.problems)
             continue
-        conflicts = _scale_conflicts(lf, merged)
+        conflicts = scale_conflicts(lf, merged)
         if conflicts:
             problems.extend(conflicts)
             continue

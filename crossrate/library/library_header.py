@@ -6,7 +6,6 @@ E(vs relative_to) = E(vs key) + offset_V. Leaving out offset_V makes the scale u
 core/potential_scales.py).
 """
 
-import math
 from dataclasses import dataclass, field
 
 from ..core.potential_scales import PotentialScale, ScaleRegistry, builtin_scales
@@ -21,7 +20,7 @@ from .schema import (
     SCALE_KEYS,
     closest,
 )
-from .validation import describe
+from .validation import describe, is_finite_number
 
 _TOP_KEYS = ("library", "couple")
 
@@ -122,7 +121,7 @@ def read_library_header(raw: dict, path: str, index: LineIndex,
     if "temperature" in lib:
         t = lib["temperature"]
         spec = FIELDS_BY_NAME["temperature"]
-        if type(t) not in (int, float) or not math.isfinite(t) or not spec.in_range(t):
+        if not is_finite_number(t) or not spec.in_range(t):
             bad("temperature", f"got {describe(t)}; expected {spec.expected()}")
         else:
             defaults["temperature"] = float(t)
@@ -174,8 +173,7 @@ def _read_scales(raw, path, index, known_scales, problems) -> dict[str, Potentia
                 bad(k, f"got {describe(entry[k])}; expected text in quotes")
                 ok = False
         offset = entry.get("offset_V")
-        if offset is not None and (type(offset) not in (int, float) or not math.isfinite(offset)
-                                   or abs(offset) > 5):
+        if offset is not None and (not is_finite_number(offset) or abs(offset) > 5):
             bad("offset_V", f"got {describe(offset)}; expected a finite number from -5 to 5 V")
             ok = False
         rel = entry.get("relative_to")

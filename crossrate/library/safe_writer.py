@@ -1,44 +1,72 @@
 """Writing a library file so that nothing anyone had is lost.
 
-The new text is validated first (a text that does not validate is never written). Then, under an
-exclusive lock on a sibling `.<name>.lock` file (fcntl.flock, so two crossrate processes editing one
-group file take turns), the file's sha256 is compared with the one the caller read: if someone changed
-the file since, the write is refused with ConflictError. Otherwise the previous version is kept as
-`<name>.bak`, the new text goes to a temporary file in the same folder, is flushed and fsync'ed, given
-the original file's permission bits, and moved over the original with os.replace (atomic on POSIX:
-a reader sees the old file or the new one, never half of one). The lock file stays in place (removing
-it would race with another process that is about to lock it); add `.*.lock` to the group repo's
-.gitignore.
+The new text is validated first (a text that does not validate is never written). The file written is the
+real file: a path that is a symbolic link is followed to its target (a dangling link is refused), and a file
+with several names (hard links) is refused, since replacing it would split the names. Then, under an
+exclusive lock on the sibling `.<name>.lock` (file_lock: crossrate writers take turns), leftovers of a
+crashed earlier write (`.<name>.<hex>.tmp`, `.<name>.bak.<hex>.tmp`) are removed, and the file's sha256 is
+compared with the one the caller read: if someone changed it since, the write is refused with ConflictError.
+Otherwise the previous version is kept as `<name>.bak`, the new text goes to a temporary file in the same
+folder (flushed, fsync'ed, given the original's owner, group and mode where the process may), the file is
+read once more and compared byte for byte immediately before os.replace moves the new text over it (atomic
+on POSIX: a reader sees the old file or the new one, never half of one).
+
+What the lock does not cover: a program that edits the file without taking the lock (a text editor, a
+script appending a line) and lands its edit in the microseconds between that last comparison and the
+rename. Such an edit goes to the replaced version of the file; crossrate reads that version again after the
+rename, and when it differs it is saved as `<name>.conflict-<time>` and the write is reported as a conflict
+(the edit is kept, not lost). An edit that lands after that second read, by a program that opened the file
+before the rename, is outside what any lock-free scheme can see.
 """
 
-import errno
-import fcntl
 import os
+import re
 import secrets
 import stat
 import time
 from collections.abc import Callable
 from pathlib import Path
 
-from ..errors import ConflictError, CrossrateError
+from ..errors import ConflictError
+from .file_lock import LOCK_TIMEOUT_S, LibraryWriteError, acquire, lock_path, open_lock
 from .toml_reader import sha256_of
 
-#: How long a writer waits for another writer's lock before giving up, s.
-LOCK_TIMEOUT_S = 10.0
+__all__ = ["LOCK_TIMEOUT_S", "LibraryWriteError", "SafeWriter", "backup_path", "lock_path", "remove_leftovers"]
 
-
-class LibraryWriteError(CrossrateError):
-    """The file could not be written (permissions, full disk...); the original file is unchanged."""
-
-
-def lock_path(path: Path) -> Path:
-    """The sibling lock file of a library file: `.<name>.lock` in the same folder."""
-    return path.with_name(f".{path.name}.lock")
+_NOFOLLOW = getattr(os, "O_NOFOLLOW", 0)
 
 
 def backup_path(path: Path) -> Path:
     """Where the previous version is kept: `<name>.bak` beside the file."""
     return path.with_name(f"{path.name}.bak")
+
+
+def _temp_name(target: Path) -> Path:
+    return target.with_name(f".{target.name}.{secrets.token_hex(6)}.tmp")
+
+
+def remove_leftovers(path: Path) -> list[str]:
+    """Remove the temporary files a crashed write of `path` left beside it; returns their names.
+
+    Only called under the file's lock: every crossrate write holds it while its temporary files exist, so
+    a temporary file found then belongs to a process that died.
+    """
+    pattern = re.compile(rf"\.{re.escape(path.name)}(\.bak)?\.[0-9a-f]{{12}}\.tmp")
+    removed = []
+    try:
+        names = os.listdir(path.parent)
+    except OSError:
+        return removed
+    for name in names:
+        if pattern.fullmatch(name):
+            p = path.with_name(name)
+            try:
+                if stat.S_ISREG(os.lstat(p).st_mode):
+                    os.unlink(p)
+                    removed.append(name)
+            except OSError:
+                continue  # not ours to remove (permissions): it never shadows the file, being hidden
+    return removed
 
 
 class SafeWriter:
@@ -52,26 +80,45 @@ class SafeWriter:
         self.validate = validate
         self.lock_timeout_s = lock_timeout_s
 
+    def target(self) -> Path:
+        """The file a write changes: the path itself, or the file its symbolic link(s) lead to."""
+        path = self.path
+        if not path.is_symlink():
+            return path
+        real = Path(os.path.realpath(path))
+        if not real.exists():
+            raise LibraryWriteError(f"{path}: is a symbolic link to {real}, which does not exist; expected a link "
+                                    "to an existing library file (nothing was written)")
+        return real
+
     def write(self, new_text: str, expected_sha256: str | None) -> str:
         """Replace the file with new_text if its content still has sha256 expected_sha256.
 
         expected_sha256: hex digest of the bytes the caller read; None means "the file must not exist yet".
         Returns the sha256 of the new content. Raises LibraryError (new text invalid), ConflictError (file
-        changed or created since it was read, or locked too long), LibraryWriteError (I/O failure); in every
-        one of those cases the file on disk is as it was.
+        changed or created since it was read, or locked too long), LibraryWriteError (I/O failure, hard
+        links, not a regular file); in every one of those cases the file on disk is as it was.
         """
         if self.validate is not None:
             self.validate(new_text)
         data = new_text.encode("utf-8")
-        path = self.path
+        target = self.target()
+        lock_fd = open_lock(target, _stat_or_none(target))
         try:
-            lock_fd = os.open(lock_path(path), os.O_RDWR | os.O_CREAT, 0o666)
-        except OSError as exc:
-            raise LibraryWriteError(f"{path}: cannot create the lock file {lock_path(path).name} "
-                                    f"({exc.strerror}); the file was not changed") from None
+            acquire(lock_fd, self.path, self.lock_timeout_s)
+            remove_leftovers(target)
+            remove_leftovers(backup_path(target))
+            if self.target() != target:
+                raise ConflictError(f"{self.path}: now links to another file than when it was read; nothing was "
+                                    "written: reload the file and make the edit again")
+            self._write_locked(target, data, expected_sha256)
+            return sha256_of(data)
+        finally:
+            os.close(lock_fd)  # closing releases the flock
+
+    def _write_locked(self, target: Path, data: bytes, expected_sha256: str | None) -> None:
+        cur_fd, old, st = self._open_current(target)
         try:
-            self._lock(lock_fd)
-            old = self._current(path)
             current_sha = None if old is None else sha256_of(old)
             if current_sha != expected_sha256:
                 if expected_sha256 is None:
@@ -80,68 +127,147 @@ class SafeWriter:
                     why = "was deleted or moved since it was read"
                 else:
                     why = "changed on disk since it was read (edited by someone else or another program)"
-                raise ConflictError(f"{path}: {why}; nothing was written: reload the file and make the edit again")
-            mode = stat.S_IMODE(os.stat(path).st_mode) if old is not None else None
+                raise ConflictError(f"{self.path}: {why}; nothing was written: reload the file and make the edit again")
+            if st is not None and st.st_nlink > 1:
+                raise LibraryWriteError(
+                    f"{self.path}: has {st.st_nlink} names (hard links); replacing it would leave the other names "
+                    "with the old text; expected a file with one name: share it by a symbolic link instead "
+                    "(nothing was written)")
             try:
                 if old is not None:
-                    self._replace_atomically(backup_path(path), old, mode)
-                self._replace_atomically(path, data, mode)
+                    self._replace_atomically(backup_path(target), old, st)
+                self._replace_atomically(target, data, st, expected=old, create=old is None)
             except OSError as exc:
-                raise LibraryWriteError(f"{path}: could not be written ({exc.strerror or exc}); "
+                raise LibraryWriteError(f"{self.path}: could not be written ({exc.strerror or exc}); "
                                         "the file was not changed") from None
-            return sha256_of(data)
+            if cur_fd is not None:
+                self._check_replaced_version(cur_fd, old, target)
         finally:
-            os.close(lock_fd)  # closing releases the flock
+            if cur_fd is not None:
+                os.close(cur_fd)
 
-    def _lock(self, fd: int) -> None:
-        deadline = time.monotonic() + self.lock_timeout_s
-        while True:
-            try:
-                fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
-                return
-            except OSError as exc:
-                if exc.errno not in (errno.EAGAIN, errno.EACCES, errno.EWOULDBLOCK):
-                    raise LibraryWriteError(f"{self.path}: cannot lock {lock_path(self.path).name} "
-                                            f"({exc.strerror}); the file was not changed") from None
-            if time.monotonic() > deadline:
-                raise ConflictError(f"{self.path}: another crossrate is writing it (locked for over "
-                                    f"{self.lock_timeout_s:g} s); nothing was written: try again")
-            time.sleep(0.05)
-
-    @staticmethod
-    def _current(path: Path) -> bytes | None:
+    def _open_current(self, path: Path):
+        """(fd, bytes, stat) of the file as it is now, or (None, None, None) when it does not exist. The fd
+        stays open so that the replaced version can be read again after the rename."""
         try:
-            return path.read_bytes()
+            fd = os.open(path, os.O_RDONLY | os.O_NONBLOCK | _NOFOLLOW)
         except FileNotFoundError:
-            return None
+            return None, None, None
         except OSError as exc:
-            raise LibraryWriteError(f"{path}: cannot be read to check it before writing ({exc.strerror}); "
+            raise LibraryWriteError(f"{self.path}: cannot be read to check it before writing ({exc.strerror}); "
                                     "the file was not changed") from None
+        try:
+            st = os.fstat(fd)
+            if not stat.S_ISREG(st.st_mode):
+                raise LibraryWriteError(f"{self.path}: is not a regular file; expected a library TOML file "
+                                        "(nothing was written)")
+            return fd, _read_all(fd), st
+        except BaseException:
+            os.close(fd)
+            raise
 
-    @staticmethod
-    def _replace_atomically(target: Path, data: bytes, mode: int | None) -> None:
-        """Write data to a temporary file beside target, fsync it, then os.replace it over target.
+    def _check_replaced_version(self, fd: int, old: bytes, target: Path) -> None:
+        """After the rename: did a program that ignores the lock write to the version just replaced? Then
+        its text is saved beside the file and the write is reported as a conflict."""
+        now = _read_all(fd)
+        if now == old:
+            return
+        stamp = time.strftime("%Y%m%d-%H%M%S")
+        saved = target.with_name(f"{target.name}.conflict-{stamp}-{secrets.token_hex(2)}")
+        st = os.fstat(fd)
+        self._replace_atomically(saved, now, st, create=True)
+        raise ConflictError(f"{self.path}: another program changed it at the moment crossrate replaced it; "
+                            f"crossrate's edit is in the file and the other program's version was saved as "
+                            f"{saved.name}: merge the two by hand")
 
-        mode: permission bits to give it (the original file's); None for a new file (0o666 less umask).
+    def _replace_atomically(self, target: Path, data: bytes, st: os.stat_result | None,
+                            expected: bytes | None = None, create: bool = False) -> None:
+        """Write data to a temporary file beside target, fsync it, then move it over target.
+
+        st: the original file's stat (owner, group and mode are copied where the process may); None for a
+        new file (0o666 less umask). expected: the bytes target must still hold just before the rename (the
+        library file itself; None: no check, as for the backup). create: target must not exist (a new
+        library file, a saved conflict): it is linked into place, which never replaces anyone's file.
         """
-        tmp = target.with_name(f".{target.name}.{secrets.token_hex(6)}.tmp")
-        fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o600 if mode is not None else 0o666)
+        tmp = _temp_name(target)
+        fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL | _NOFOLLOW, 0o600 if st is not None else 0o666)
         try:
             with os.fdopen(fd, "wb") as fh:
+                if st is not None:
+                    _copy_owner_and_mode(fh.fileno(), st)
                 fh.write(data)
                 fh.flush()
                 os.fsync(fh.fileno())
-            if mode is not None:
-                os.chmod(tmp, mode)
-            os.replace(tmp, target)
+            if create:
+                os.link(tmp, target)
+                os.unlink(tmp)
+            else:
+                if expected is not None:
+                    self._last_check(target, expected, st)
+                os.replace(tmp, target)
+        except FileExistsError:
+            _unlink_quietly(tmp)
+            raise ConflictError(f"{self.path}: exists already (created since you looked); nothing was written: "
+                                "reload the file and make the edit again") from None
         except BaseException:
             # any failure (or interrupt) before the replace leaves the target untouched; drop the temporary
-            try:
-                os.unlink(tmp)
-            except FileNotFoundError:
-                pass
+            _unlink_quietly(tmp)
             raise
         _fsync_folder(target.parent)
+
+    def _last_check(self, target: Path, expected: bytes, st: os.stat_result | None) -> None:
+        """Immediately before the rename: the file is still the same file with the same bytes."""
+        try:
+            fd = os.open(target, os.O_RDONLY | os.O_NONBLOCK | _NOFOLLOW)
+        except FileNotFoundError:
+            raise ConflictError(f"{self.path}: was deleted or moved while crossrate was writing it; nothing was "
+                                "written: reload the file and make the edit again") from None
+        try:
+            now_st = os.fstat(fd)
+            same = (st is not None and (now_st.st_dev, now_st.st_ino) == (st.st_dev, st.st_ino)
+                    and _read_all(fd) == expected)
+        finally:
+            os.close(fd)
+        if not same:
+            raise ConflictError(f"{self.path}: changed on disk while crossrate was writing it (edited by another "
+                                "program); nothing was written: reload the file and make the edit again")
+
+
+def _copy_owner_and_mode(fd: int, st: os.stat_result) -> None:
+    """Give the new file the old one's owner and group (each where permitted), then its mode bits (after the
+    chown, which may clear set-id bits)."""
+    try:
+        os.fchown(fd, st.st_uid, st.st_gid)
+    except OSError:
+        try:
+            os.fchown(fd, -1, st.st_gid)
+        except OSError:
+            pass  # not a member of the file's group: it keeps the writer's group
+    os.fchmod(fd, stat.S_IMODE(st.st_mode))
+
+
+def _read_all(fd: int) -> bytes:
+    os.lseek(fd, 0, os.SEEK_SET)
+    chunks = []
+    while True:
+        chunk = os.read(fd, 1 << 20)
+        if not chunk:
+            return b"".join(chunks)
+        chunks.append(chunk)
+
+
+def _stat_or_none(path: Path) -> os.stat_result | None:
+    try:
+        return os.stat(path)
+    except OSError:
+        return None
+
+
+def _unlink_quietly(path: Path) -> None:
+    try:
+        os.unlink(path)
+    except FileNotFoundError:
+        pass
 
 
 def _fsync_folder(folder: Path) -> None:

@@ -9,6 +9,7 @@ import gc
 import hashlib
 import os
 import re
+import stat
 from contextlib import contextmanager
 from dataclasses import dataclass
 
@@ -74,18 +75,36 @@ def sha256_of(data: bytes) -> str:
 
 
 def read_library_bytes(path) -> bytes:
-    """The file's bytes; LibraryError (naming the file) when it cannot be read."""
+    """The file's bytes; LibraryError (naming the file) when it cannot be read or is not a regular file (a
+    FIFO or a device is refused at once: it is opened without waiting for a writer and never read)."""
     p = os.fspath(path)
+
+    def refuse(what: str):
+        return LibraryError([Problem(p, None, None, None, f"{what}; expected a library TOML file")])
+
     try:
-        with open(p, "rb") as fh:
-            return fh.read()
+        fd = os.open(p, os.O_RDONLY | os.O_NONBLOCK)
     except FileNotFoundError:
-        raise LibraryError([Problem(p, None, None, None, "no such file; expected a library TOML file")]) from None
+        raise refuse("no such file") from None
     except IsADirectoryError:
-        raise LibraryError([Problem(p, None, None, None, "is a folder; expected a library TOML file")]) from None
+        raise refuse("is a folder") from None
     except OSError as exc:
         raise LibraryError([Problem(p, None, None, None, f"cannot be read ({exc.strerror or exc}); "
                                     "expected a readable library TOML file")]) from None
+    try:
+        mode = os.fstat(fd).st_mode
+        if stat.S_ISDIR(mode):
+            raise refuse("is a folder")
+        if not stat.S_ISREG(mode):
+            kind = "a named pipe (FIFO)" if stat.S_ISFIFO(mode) else "a socket" if stat.S_ISSOCK(mode) else "a device"
+            raise refuse(f"is {kind}, not a regular file")
+        with os.fdopen(fd, "rb", closefd=False) as fh:
+            return fh.read()
+    except OSError as exc:
+        raise LibraryError([Problem(p, None, None, None, f"cannot be read ({exc.strerror or exc}); "
+                                    "expected a readable library TOML file")]) from None
+    finally:
+        os.close(fd)
 
 
 def read_library_file(path, layer: str = "cli",

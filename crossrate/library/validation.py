@@ -29,6 +29,22 @@ from .schema import (
 _KNOWN = frozenset(FIELDS_BY_NAME)
 
 
+def is_finite_number(value) -> bool:
+    """A TOML int or a finite float (never a bool; an int of any size, which float() may not hold)."""
+    t = type(value)
+    return t is int or (t is float and math.isfinite(value))
+
+
+def _huge_integer(value: int) -> str:
+    """'1e+400' for an integer too large for a float (str() itself refuses beyond ~4300 digits)."""
+    sign = "-" if value < 0 else ""
+    if value.bit_length() < 14_000:
+        digits = str(abs(value))
+        return f"{sign}{digits[0]}.{digits[1:3]}e+{len(digits) - 1}" if digits[1:3].strip("0") else \
+            f"{sign}{digits[0]}e+{len(digits) - 1}"
+    return f"{sign}about 1e+{int(value.bit_length() * math.log10(2))}"
+
+
 def describe(value) -> str:
     """A value as a chemist would read it in a message: 'text "abc"', 'true (a boolean)', '4.2'."""
     if isinstance(value, bool):
@@ -37,7 +53,12 @@ def describe(value) -> str:
         shown = value if len(value) <= 40 else value[:37] + "..."
         return f'text "{shown}"'
     if isinstance(value, int):
-        return str(value) if abs(value) < 10**15 else f"{float(value):g}"
+        if abs(value) < 10**15:
+            return str(value)
+        try:
+            return f"{float(value):g}"
+        except OverflowError:  # beyond any float (about 1e308): written from its digits instead
+            return _huge_integer(value)
     if isinstance(value, float):
         return f"{value:g}"
     if isinstance(value, list):

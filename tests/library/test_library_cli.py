@@ -32,11 +32,11 @@ def run(capsys):
 
 def test_validate_valid_and_invalid_files(run, base_file, write_lib):
     rc, out, err = run("library", "validate", str(base_file))
-    assert (rc, out, err) == (0, f"{base_file}: valid (3 couples)\n", "")
+    assert (rc, out, err) == (0, f"{base_file}: valid (3 couples; checked on top of the bundled layer)\n", "")
     bad = write_lib(BASE.replace("radius = 3.5", "radius = 0.5"), "bad.toml")
     rc, out, err = run("library", "validate", str(base_file), str(bad))
     assert rc == 2
-    assert out == f"{base_file}: valid (3 couples)\n"
+    assert out == f"{base_file}: valid (3 couples; checked on top of the bundled layer)\n"
     line = line_of(BASE, "radius = 3.5")
     assert err.splitlines() == [
         f"{bad}:{line}: couple t-one: field radius: got 0.5 angstrom; expected a finite number from 1 to 30 angstrom",
@@ -204,4 +204,32 @@ def test_add_to_a_new_personal_file_using_a_bundled_scale(run, tmp_path):
                        "--source", "invented for the tests")
     assert (rc, err) == (0, "") and "added couple my-fc" in out
     rc, out, err = run("library", "validate", str(p))
-    assert rc == 0 and "valid (1 couples)" in out
+    assert rc == 0 and "valid (1 couples;" in out
+
+
+GROUP_WITH_SCALE = """\
+[library]
+format = 1
+[library.scales.lab-ref]
+name = "the group's reference electrode (invented)"
+relative_to = "SHE"
+offset_V = 0.20
+"""
+
+
+def test_validate_judges_a_file_in_the_layered_context(run, write_lib, monkeypatch):
+    group = write_lib(GROUP_WITH_SCALE, "group.toml")
+    monkeypatch.setenv("CROSSRATE_GROUP_LIBRARY", str(group))
+    # a scale redefined differently from the group's: refused, as predict --library would refuse it
+    other = GROUP_WITH_SCALE.replace("offset_V = 0.20", "offset_V = 0.30")
+    mine = write_lib(other, "mine.toml")
+    rc, out, err = run("library", "validate", str(mine))
+    assert rc == 2 and out == ""
+    assert f"{mine}:" in err and "library.scales.lab-ref: defined differently in " + str(group) in err
+    rc2, _, err2 = run("predict", "--library", str(mine), "--no-bundled", "x", "y")
+    assert rc2 == 2 and "defined differently" in err2
+    # a file using the group's scale without defining it: valid, and the message says in which context
+    user = write_lib(BASE.replace('E_scale = "SHE"', 'E_scale = "lab-ref"'), "user.toml")
+    rc, out, err = run("library", "validate", str(user))
+    assert (rc, err) == (0, "")
+    assert out == f"{user}: valid (3 couples; checked on top of the bundled and group layers)\n"
