@@ -50,6 +50,11 @@ _LAZY = {
     # lambda breakdown (inner + two-sphere outer + work) of a library couple and the k_self it implies
     "estimate_lambda": ("crossrate.services.lambda_estimate", "lambda_breakdown"),
     "lambda_for_structure": ("crossrate.services.lambda_estimate", "lambda_for_structure"),
+    # a couple at an electrode: k0 from k_self, k(eta) under Butler-Volmer and Marcus-Hush-Chidsey
+    "predict_k0": ("crossrate.services.electrode_rate", "predict_k0"),
+    "rate_curves": ("crossrate.services.electrode_kinetics", "rate_curves"),
+    "ElectrodeRate": ("crossrate.services.electrode_rate", "ElectrodeRate"),
+    "RateCurves": ("crossrate.services.electrode_kinetics", "RateCurves"),
     # result records
     "Prediction": ("crossrate.services.results", "Prediction"),
     "PredictionTable": ("crossrate.services.results", "PredictionTable"),
@@ -87,6 +92,7 @@ __all__ = [
     "Prediction", "PredictionTable", "UsedConditions", "WorkTerms", "ScreenResult", "RateMap", "ProgressCallback",
     "MeasuredRow", "SeriesData", "CheckReport", "PairCheck", "KSelfSolution", "PotentialSolution", "SeriesFit",
     "LambdaBreakdown",
+    "predict_k0", "rate_curves", "ElectrodeRate", "RateCurves",
     "CrossrateError", "Problem", "LibraryError", "UnknownCoupleError", "ConditionsError", "ScienceError",
     "ConflictError", "InputFileError",
 ]  # fmt: skip
@@ -131,6 +137,8 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
     from .library.couple_set import CoupleSet
     from .services.batch_prediction import predict_many
     from .services.conditions import Conditions
+    from .services.electrode_kinetics import RateCurves, rate_curves
+    from .services.electrode_rate import ElectrodeRate, predict_k0
     from .services.lambda_estimate import LambdaBreakdown, lambda_for_structure
     from .services.lambda_estimate import lambda_breakdown as estimate_lambda
     from .services.measured_check import CheckReport, PairCheck, check_measured, check_pair

@@ -16,6 +16,7 @@ COMMAND_MODULES = (
     "fit_cmd",
     "lambda_cmd",
     "library_cmd",
+    "electrode_cmd",
 )
 
 

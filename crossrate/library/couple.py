@@ -39,7 +39,7 @@ class Couple:
     """One redox couple Ox/Red, in the units of the library format.
 
     E, E_sd in V on scale E_scale; k_self in M^-1 s^-1; k_self_log10_sd in log10 units; dH_self, lambda_in,
-    lambda_total in kJ/mol; radius in angstrom; ionic_strength in mol/L; temperature in K; E00 in eV.
+    lambda_total in kJ/mol; radius in angstrom; molar_mass in g/mol; ionic_strength in mol/L; temperature in K; E00 in eV.
     """
 
     id: str
@@ -63,6 +63,7 @@ class Couple:
     lambda_total: float | None = None
     bonds: tuple[BondSet, ...] = ()
     kappa_el: float | None = None
+    molar_mass: float | None = None
     notes: str = ""
     tags: tuple[str, ...] = ()
     verified: bool = False

@@ -132,6 +132,8 @@ FIELD_SPECS: tuple[FieldSpec, ...] = (
     _S("bonds", "bonds", "", "bond sets that change on electron transfer (inner-sphere reorganization)"),
     _S("kappa_el", "number", "", "electronic transmission factor of a non-adiabatic couple",
        low=0, high=1, low_open=True),
+    _S("molar_mass", "number", "g/mol", "molar mass of the couple's oxidized form (sets the electrode collision "
+       "factor of k0)", low=1, high=100000),
     _S("source", "text", "", "citation of the values (author, journal, year), or 'invented'", required=True),
     _S("notes", "text", "", "free notes"),
     _S("tags", "text list", "", "labels such as 'aqua' or 'spin-change'"),
