@@ -188,3 +188,40 @@ def _with_resistance(theta_app, rho, j_guess, j_low, j_high, rates_at, solve):
         if hi - lo < 1e-12:
             break
     return theta_app + rho * j, j
+
+
+@dataclass(frozen=True)
+class Peaks:
+    """Peak potentials (theta, applied) and currents (chi) of a voltammogram, refined by a parabola through
+    the three samples around each extremum; NaN where a scan has no interior extremum."""
+
+    theta_cathodic: float
+    chi_cathodic: float
+    theta_anodic: float
+    chi_anodic: float
+
+    @property
+    def separation(self) -> float:
+        """theta_anodic - theta_cathodic (units of RT/F)."""
+        return self.theta_anodic - self.theta_cathodic
+
+
+def _refine(theta, chi, i):
+    if i <= 0 or i >= chi.size - 1:
+        return math.nan, math.nan
+    y0, y1, y2 = chi[i - 1], chi[i], chi[i + 1]
+    den = y0 - 2.0 * y1 + y2
+    if den == 0.0:
+        return float(theta[i]), float(y1)
+    s = 0.5 * (y0 - y2) / den
+    return float(theta[i] + s * (theta[i + 1] - theta[i])), float(y1 - 0.25 * (y0 - y2) * s)
+
+
+def find_peaks(v: Voltammogram) -> Peaks:
+    """Cathodic peak (largest reduction flux on the forward scan) and anodic peak (largest oxidation flux on
+    the reverse scan) of a Voltammogram."""
+    n = v.n_forward
+    fwd, rev = v.chi[:n], v.chi[n:]
+    tc, cc = _refine(v.theta[:n], fwd, int(np.argmax(fwd)))
+    ta, ca = _refine(v.theta[n:], rev, int(np.argmin(rev)))
+    return Peaks(tc, cc, ta, ca)
