@@ -9,7 +9,7 @@ import csv
 import io
 from dataclasses import dataclass
 from functools import lru_cache
-from importlib import resources
+from pathlib import Path
 
 
 @dataclass(frozen=True)
@@ -26,7 +26,7 @@ class PotentialScale:
 @lru_cache(maxsize=1)
 def builtin_scales() -> dict[str, PotentialScale]:
     """The bundled scales keyed by key: SHE, SCE, AgCl-sat, AgCl-3M."""
-    text = resources.files("crossrate.core").joinpath("data/potential_scales.csv").read_text(encoding="utf-8")
+    text = (Path(__file__).parent / "data" / "potential_scales.csv").read_text(encoding="utf-8")
     lines = [ln for ln in text.splitlines() if ln.strip() and not ln.startswith("#")]
     out = {}
     for row in csv.DictReader(io.StringIO("\n".join(lines))):

@@ -9,7 +9,7 @@ import csv
 import io
 from dataclasses import dataclass
 from functools import lru_cache
-from importlib import resources
+from pathlib import Path
 
 import numpy as np
 
@@ -68,7 +68,7 @@ def _read_rows(text: str):
 @lru_cache(maxsize=1)
 def solvent_table() -> dict[str, Solvent]:
     """All solvents keyed by their key (e.g. 'water', 'acetonitrile')."""
-    text = resources.files("crossrate.core").joinpath("data/solvents.csv").read_text(encoding="utf-8")
+    text = (Path(__file__).parent / "data" / "solvents.csv").read_text(encoding="utf-8")
     table = {}
     for row in _read_rows(text):
         table[row["key"]] = Solvent(

@@ -12,18 +12,23 @@ is recorded. Where the files are:
 - cli: the paths given with --library, in order.
 Relative paths in the config file are relative to the config file's folder. A file met twice is read once.
 Custom potential scales of all files are merged; a later file may use the scales of earlier ones, and a
-scale key defined twice with different definitions is refused.
+scale key defined twice with different definitions is refused. Files are read through the content-keyed
+cache of load_cache (a repeat load of an unchanged file skips parsing and validation).
 """
 
 import os
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from ..core.potential_scales import PotentialScale, ScaleRegistry
 from ..errors import LibraryError, Problem
 from .couple_set import CoupleSet, Shadowing
+from .load_cache import LoadedLibrary, read_library_cached
+
+if TYPE_CHECKING:
+    from .toml_reader import LibraryFile
 from .toml_loads import loads
-from .toml_reader import LibraryFile, TomlSyntaxProblem, read_library_file
 
 LAYERS = ("bundled", "group", "personal", "cli")
 BUNDLED_FILES = ("starter.toml", "demo.toml")
@@ -66,6 +71,8 @@ def read_config(path: Path | None = None) -> dict:
     try:
         raw = loads(text)
     except ValueError as exc:
+        from .toml_reader import TomlSyntaxProblem
+
         line, col = getattr(exc, "lineno", None), getattr(exc, "colno", None)
         msg = getattr(exc, "msg", str(exc))
         raise LibraryError([TomlSyntaxProblem(str(path), line, None, None, f"TOML syntax error: {msg}; "
@@ -117,15 +124,19 @@ def layer_files(extra_paths=(), bundled: bool = True, group: bool = True, person
     return out
 
 
-def scale_conflicts(lf: LibraryFile, merged: dict[str, tuple[PotentialScale, str]]) -> list[Problem]:
+def scale_conflicts(lf: "LibraryFile | LoadedLibrary", merged: dict[str, tuple[PotentialScale, str]]) -> list[Problem]:
     """Problems for each scale key of lf that merged (key -> (scale, defining file)) defines differently."""
     problems = []
     for key, sc in lf.scales.items():
         if key in merged:
             prev, where = merged[key]
             if (prev.relative_to, prev.offset_V) != (sc.relative_to, sc.offset_V):
-                span = lf.index.table("library", "scales", key)
-                problems.append(Problem(lf.path, span.line if span else None, None, f"library.scales.{key}",
+                if isinstance(lf, LoadedLibrary):
+                    line = lf.scale_line(key)
+                else:
+                    span = lf.index.table("library", "scales", key)
+                    line = span.line if span else None
+                problems.append(Problem(lf.path, line, None, f"library.scales.{key}",
                                         f"defined differently in {where} (relative_to {prev.relative_to or 'none'}, "
                                         f"offset_V {prev.offset_V:g}); expected the same definition or another key"))
     return problems
@@ -167,7 +178,7 @@ def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = Tru
                                         f"no such file ({lf_spec.why}); expected a library TOML file there"))
             continue
         try:
-            lf = read_library_file(lf_spec.path, lf_spec.layer, {k: v[0] for k, v in merged.items()})
+            lf = read_library_cached(lf_spec.path, lf_spec.layer, {k: v[0] for k, v in merged.items()})
         except LibraryError as exc:
             problems.extend(exc.problems)
             continue

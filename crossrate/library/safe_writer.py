@@ -270,6 +270,13 @@ def _unlink_quietly(path: Path) -> None:
         pass
 
 
+def replace_atomically(target, data: bytes, mode: int | None = None) -> None:
+    """Write bytes to a temporary file beside target, fsync it and move it over target (no lock, no
+    backup, no check of what was there): for files crossrate owns alone, such as its cache entries.
+    mode: permission bits (None: 0o666 less umask). Raises OSError; target is then as it was."""
+    SafeWriter._replace_atomically(Path(target), data, mode)
+
+
 def _fsync_folder(folder: Path) -> None:
     """Ask for the rename itself to be made durable. This runs after os.replace, when the new file is
     already in place, so a failure here must not be reported as "not written": some file systems refuse

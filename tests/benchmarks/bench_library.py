@@ -6,12 +6,14 @@ bonds and tags, as a group file would have them) in a temporary folder and print
   best and median of several runs, beside tomli's parse alone for reference;
 * the line-index scan and validation share of that time;
 * one safe, comment-keeping edit (update_couple) of a couple in the middle of the 10,000-couple file;
-* the whole layered load (bundled libraries plus the 10,000-couple file).
+* the whole layered load (bundled libraries plus the 10,000-couple file), first (cache cold) and on repeat
+  loads (through the content-keyed cache; target <= 0.15 s), in a cache folder of its own.
 
 Exit status 1 when a target is missed. The couples are synthetic (seeded), not chemistry.
 """
 
 import dataclasses
+import os
 import random
 import statistics
 import sys
@@ -120,8 +122,16 @@ def main() -> int:
         print(f"one safe edit in the 10,000-couple file (parse, validate the new text, lock, check sha256, backup, "
               f"fsync, replace): {t_edit:.3f} s; lines kept identical: {head} before and {tail} after the "
               f"{len(after) - head - tail} written")
-        best, med, cs = timed(lambda: load_layered(extra_paths=(str(big),), group=False, personal=False), runs=3)
-        print(f"layered load (bundled + 10,000-couple file, {len(cs)} couples): best {best:.3f} s, median {med:.3f} s")
+        os.environ["XDG_CACHE_HOME"] = str(folder / "cache")
+        os.environ.pop("CROSSRATE_NO_CACHE", None)
+        t0 = time.perf_counter()
+        load_layered(extra_paths=(str(big),), group=False, personal=False)
+        first = time.perf_counter() - t0
+        best, med, cs = timed(lambda: load_layered(extra_paths=(str(big),), group=False, personal=False))
+        verdict = "ok" if best <= 0.15 else "MISSED"
+        ok &= best <= 0.15
+        print(f"layered load (bundled + 10,000-couple file, {len(cs)} couples): first (parse, validate, store in the "
+              f"cache) {first:.3f} s; repeat loads best {best:.3f} s, median {med:.3f} s (target <= 0.15 s: {verdict})")
     print("tomlkit (a style-preserving parser) is not a dependency: edits are made on the text instead "
           "(see crossrate/library/table_editor.py)")
     return 0 if ok else 1

@@ -1,4 +1,5 @@
-"""Physical constants of the core come from scipy.constants (CODATA), not typed in."""
+"""Physical constants of the core are the CODATA values scipy.constants ships (written in the core so a cold
+start does not import scipy; these tests keep the two the same)."""
 
 import math
 
@@ -9,15 +10,31 @@ from crossrate.core import constants as C
 
 
 def test_constants_are_scipy_codata_values():
-    # Source: scipy.constants (CODATA recommended values, as shipped with scipy). Identity, not closeness:
-    # the core must take these numbers from scipy, not carry its own copies.
+    # Source: scipy.constants (CODATA recommended values, as shipped with scipy). Identity, not closeness, for
+    # the constants the 2019 SI makes exact (e, N_A, k, h) and those defined from them (F = e N_A, R = N_A k).
     assert C.GAS_CONSTANT == sc.R
     assert C.AVOGADRO == sc.N_A
     assert C.ELEMENTARY_CHARGE == sc.e
-    assert C.VACUUM_PERMITTIVITY == sc.epsilon_0
     assert C.BOLTZMANN == sc.k
     assert C.PLANCK == sc.h
     assert C.FARADAY == sc.physical_constants["Faraday constant"][0]
+    # epsilon_0 is measured: CODATA 2022 (scipy >= 1.15) 8.8541878188e-12 F/m, CODATA 2018 8.8541878128e-12 F/m,
+    # 6.8e-10 apart relative; identical with a CODATA 2022 scipy, within that step with an older one.
+    assert C.VACUUM_PERMITTIVITY == pytest.approx(sc.epsilon_0, rel=1e-9)
+    if sc.physical_constants["vacuum electric permittivity"][0] == 8.8541878188e-12:
+        assert C.VACUUM_PERMITTIVITY == sc.epsilon_0
+
+
+def test_cold_import_of_the_core_does_not_load_scipy():
+    # The constants are written in the core so `crossrate predict` starts without importing scipy (issue 12).
+    import subprocess
+    import sys
+    from pathlib import Path
+
+    code = "import sys, crossrate.core.constants, crossrate.services.prediction; print('scipy' in sys.modules)"
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True,
+                         cwd=Path(__file__).resolve().parents[2])
+    assert out.stdout.strip() == "False"
 
 
 def test_faraday_is_e_times_avogadro():

@@ -1,0 +1,44 @@
+"""Only the named subcommand's module is imported to parse a command line (a faster cold start); the root
+options before the command, help and unknown commands still work as with the full parser."""
+
+import sys
+from pathlib import Path
+
+import pytest
+
+from crossrate.cli.main import COMMAND_MODULES, _command_of, build_parser
+
+TEST_LIBRARY = Path(__file__).resolve().parents[1] / "services" / "data" / "halden_screen_test.toml"
+
+
+@pytest.mark.parametrize(("argv", "module"), [
+    (["predict", "a", "b"], "predict_cmd"),
+    (["--library", "predict", "screen", "x"], "screen_cmd"),  # a --library value is not the command
+    (["--debug", "--library=x.toml", "library", "list"], "library_cmd"),
+    (["--help"], None),
+    ([], None),
+    (["predicts", "a"], None),  # unknown: the full parser says which commands exist
+])
+def test_command_of(argv, module):
+    assert _command_of(argv) == module
+
+
+def test_one_command_parser_imports_only_its_module():
+    for name in COMMAND_MODULES:
+        sys.modules.pop(f"crossrate.cli.{name}", None)
+    parser = build_parser("predict_cmd")
+    args = parser.parse_args(["predict", "a", "b", "--seed", "3"])
+    assert (args.oxidant, args.reductant, args.seed) == ("a", "b", 3)
+    assert "crossrate.cli.screen_cmd" not in sys.modules
+
+
+def test_root_library_option_before_the_command(run_cli):
+    rc, out, err = run_cli("--library", str(TEST_LIBRARY), "library", "list", "--no-bundled", library=False)
+    assert rc == 0, err
+    assert "hl-" in out
+
+
+def test_unknown_command_lists_the_known_ones(run_cli):
+    rc, out, err = run_cli("predicts", "a", "b", library=False)
+    assert rc == 2
+    assert "predict" in err and "screen" in err and "library" in err
