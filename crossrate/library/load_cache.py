@@ -12,8 +12,8 @@ or damaged, all fall back to a plain read, and a file with problems is never cac
 reported from a fresh read each time). When an entry is stored, the entries for older contents of the
 same file are removed, so the folder holds one entry per library file.
 
-Entries are pickles; one is loaded only from a folder and file owned by the user running crossrate and
-not writable by anyone else.
+Entries are pickles; one is loaded only when it and its folder are owned by the user running crossrate and
+the folder is writable by no one else.
 """
 
 import copyreg
@@ -131,7 +131,8 @@ def _load_entry(entry: Path, content_sha256: str, abs_path: str):
         return None
     try:
         with os.fdopen(fd, "rb") as fh:
-            if not (_owned_private(os.fstat(fh.fileno())) and _owned_private(os.stat(entry.parent))):
+            # the folder (made 0o700) keeps others out; the entry must be ours
+            if not (os.fstat(fh.fileno()).st_uid == os.getuid() and _owned_private(os.stat(entry.parent))):
                 return None
             data = fh.read()
     except OSError:
@@ -164,7 +165,7 @@ def _store_entry(folder: Path, name: str, payload: tuple) -> None:
         _Pickler(buf, protocol=pickle.HIGHEST_PROTOCOL).dump(payload)
         from .safe_writer import replace_atomically
 
-        replace_atomically(folder / name, buf.getvalue(), 0o600)
+        replace_atomically(folder / name, buf.getvalue())
         prefix = name.split("-", 1)[0] + "-"
         for old in folder.glob(prefix + "*" + _SUFFIX):
             if old.name != name:

@@ -270,11 +270,12 @@ def _unlink_quietly(path: Path) -> None:
         pass
 
 
-def replace_atomically(target, data: bytes, mode: int | None = None) -> None:
+def replace_atomically(target, data: bytes) -> None:
     """Write bytes to a temporary file beside target, fsync it and move it over target (no lock, no
     backup, no check of what was there): for files crossrate owns alone, such as its cache entries.
-    mode: permission bits (None: 0o666 less umask). Raises OSError; target is then as it was."""
-    SafeWriter._replace_atomically(Path(target), data, mode)
+    A new file gets 0o666 less umask. Raises OSError; target is then as it was."""
+    target = Path(target)
+    SafeWriter(target)._replace_atomically(target, data, None)
 
 
 def _fsync_folder(folder: Path) -> None:

@@ -122,11 +122,12 @@ def test_damaged_entry_is_ignored_and_replaced(cache_home, base_file):
     assert read_library_cached(base_file).from_cache
 
 
-def test_entry_writable_by_others_is_not_trusted(cache_home, base_file):
+def test_entries_in_a_folder_writable_by_others_are_not_trusted(cache_home, base_file):
     read_library_cached(base_file)
-    (entry,) = _entries()
-    entry.chmod(0o666)
+    cache_dir().chmod(0o777)
     assert not read_library_cached(base_file).from_cache
+    cache_dir().chmod(0o700)
+    assert read_library_cached(base_file).from_cache
 
 
 def test_cache_can_be_turned_off(cache_home, base_file, monkeypatch):
