@@ -13,12 +13,19 @@ def load_library(
     bundled: bool = True,
     group: bool = True,
     personal: bool = True,
+    starter: bool = True,
+    demo: bool = False,
 ) -> CoupleSet:
-    """Load the layered couple library: bundled -> group -> personal -> each of `paths`, later layers winning.
+    """Load the layered couple library: bundled starter -> (demo) -> group -> personal -> each of `paths`,
+    later layers winning. An empty set says why in the UnknownCoupleError of its first lookup (and in
+    ``couple_set.empty_reason()``).
 
     Args:
         *paths: extra library files (TOML) added on top, in order (like `--library PATH` on the command line).
-        bundled: include the bundled libraries (libraries/demo.toml, libraries/starter.toml).
+        bundled: include the bundled libraries at all (False leaves out the starter and the demo).
+        starter: include the bundled starter library (literature couples recalled from memory, unverified).
+        demo: include the invented demo library (made-up Halden Lake couples, each marked ``invented``);
+            never loaded unless asked for.
         group: include the group library (CROSSRATE_GROUP_LIBRARY or ~/.config/crossrate/config.toml).
         personal: include the personal library (CROSSRATE_PERSONAL_LIBRARY or ~/.config/crossrate/personal.toml).
 
@@ -33,5 +40,6 @@ def load_library(
     from .library.layers import load_layered
 
     return load_layered(
-        extra_paths=tuple(str(p) for p in paths), bundled=bundled, group=group, personal=personal
+        extra_paths=tuple(str(p) for p in paths), bundled=bundled, group=group, personal=personal,
+        starter=starter, demo=demo,
     )

@@ -39,10 +39,13 @@ class LibraryError(CrossrateError):
 class UnknownCoupleError(CrossrateError, KeyError):
     """A couple id is not in the loaded set; .suggestions lists the closest ids."""
 
-    def __init__(self, couple_id: str, suggestions: list[str] | None = None):
+    def __init__(self, couple_id: str, suggestions: list[str] | None = None, empty_reason: str = ""):
+        """empty_reason: 'no couples loaded: ...' when the set holds no couple at all (said instead of a hint)."""
         self.couple_id = couple_id
         self.suggestions = list(suggestions or [])
         hint = f"; did you mean {', '.join(self.suggestions)}?" if self.suggestions else ""
+        if empty_reason:
+            hint = f": {empty_reason}"
         super().__init__(f"unknown couple {couple_id!r}{hint}")
 
     def __str__(self) -> str:  # KeyError would otherwise quote the message

@@ -3,15 +3,13 @@
     .venv/bin/python screenshots/make_screenshots.py
 
 Each picture is taken headlessly inside App.run_test(size=...): the keys a user would press, then
-pilot.pause() and app.save_screenshot(). The pictures read libraries/demo.toml (shown as that relative path);
-the editor picture opens a temporary copy of it, so libraries/demo.toml is never touched.
+pilot.pause() and app.save_screenshot(). The pictures read the invented demo library alone, as `crossrate
+--demo --no-starter` would (every couple in them is marked invented); the editor picture only opens the form,
+so libraries/demo.toml is never written.
 """
 
 import asyncio
-import os
-import shutil
 import sys
-import tempfile
 from pathlib import Path
 
 HERE = Path(__file__).resolve().parent
@@ -23,8 +21,8 @@ from crossrate.tui.app import CrossrateApp  # noqa: E402
 from crossrate.tui.screens.workbench import WorkbenchScreen  # noqa: E402
 
 DEMO = ROOT / "libraries" / "demo.toml"
-DEMO_RELATIVE = Path("libraries") / "demo.toml"  # read from ROOT, so the detail panel shows this path
-ONLY_DEMO = {"bundled": False, "group": False, "personal": False}
+#: The layers of `crossrate --demo --no-starter`, without the machine's group and personal libraries.
+ONLY_DEMO = {"demo": True, "starter": False, "group": False, "personal": False}
 
 #: (file name, terminal size, keys after the pair hl-med3 + hl-co-amine is set)
 SHOTS = (
@@ -48,8 +46,8 @@ async def _ready(pilot) -> WorkbenchScreen:
     raise RuntimeError("the demo library did not load")
 
 
-async def shoot(name: str, size, keys, library: Path) -> Path:
-    app = CrossrateApp(library_paths=[str(library)], layers=ONLY_DEMO)  # library: relative to the cwd
+async def shoot(name: str, size, keys) -> Path:
+    app = CrossrateApp(layers=ONLY_DEMO)
     async with app.run_test(size=size) as pilot:
         screen = await _ready(pilot)
         table = screen.query_one("#table")
@@ -70,17 +68,9 @@ async def main() -> int:
     if not DEMO.exists():
         print(f"missing {DEMO}", file=sys.stderr)
         return 1
-    with tempfile.TemporaryDirectory() as tmp:
-        # The editor opens a copy laid out like the checkout, so the picture shows libraries/demo.toml too.
-        (Path(tmp) / "libraries").mkdir()
-        shutil.copyfile(DEMO, Path(tmp) / DEMO_RELATIVE)
-        for name, size, keys in SHOTS:
-            os.chdir(tmp if "e" in keys else ROOT)
-            try:
-                path = await shoot(name, size, keys, DEMO_RELATIVE)
-            finally:
-                os.chdir(ROOT)
-            print(f"wrote {path.relative_to(ROOT)}")
+    for name, size, keys in SHOTS:
+        path = await shoot(name, size, keys)
+        print(f"wrote {path.relative_to(ROOT)}")
     return 0
 
 

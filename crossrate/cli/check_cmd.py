@@ -89,7 +89,7 @@ def _with_progress(job, total):
 CSV_COLUMNS = (
     "line", "label", "oxidant", "reductant", "k_measured", "log10_k_measured", "k_measured_log10_sd",
     "log10_k_pred", "log10_k_pred_low", "log10_k_pred_high", "log10_ratio", "position", "verdict",
-    "regime", "log10_k_diff", "likely_causes",
+    "regime", "log10_k_diff", "likely_causes", "oxidant_provenance", "reductant_provenance",
 )
 
 
@@ -103,7 +103,7 @@ def _print_csv(report) -> None:
             r.line, r.label or "", r.oxidant, r.reductant, f"{r.k_measured:.6g}", f"{r.log10_k_measured:.4f}",
             f"{r.k_measured_log10_sd:.3g}", f"{r.log10_k_pred:.4f}", f"{r.log10_k_pred_95[0]:.4f}",
             f"{r.log10_k_pred_95[1]:.4f}", f"{r.log10_ratio:+.4f}", r.position, r.verdict, r.regime,
-            f"{r.log10_k_diff:.4f}", "; ".join(r.likely_cause_keys),
+            f"{r.log10_k_diff:.4f}", "; ".join(r.likely_cause_keys), r.oxidant_provenance, r.reductant_provenance,
         ])
 
 
@@ -112,9 +112,13 @@ TABLE_HEADER = ("line", "oxidant", "reductant", "k meas", "pred [95 %]", "log r"
 
 
 def table_lines(report) -> list[str]:
-    """The fixed-width table of the rows (ids never cut; fits 80 columns for ids up to 16 characters)."""
+    """The fixed-width table of the rows (ids never cut, each with its '!' invented or '?' unverified mark;
+    fits 80 columns for ids up to 16 characters)."""
+    from ..library.provenance import marked_id
+
     rows = [
-        (str(r.line), r.oxidant, r.reductant, f"{r.k_measured:.3g}",
+        (str(r.line), marked_id(r.oxidant, r.oxidant_provenance), marked_id(r.reductant, r.reductant_provenance),
+         f"{r.k_measured:.3g}",
          f"{r.log10_k_pred:.2f} [{r.log10_k_pred_95[0]:.2f},{r.log10_k_pred_95[1]:.2f}]",
          f"{r.log10_ratio:+.2f}", SHORT_VERDICT[r.verdict])
         for r in report.rows
@@ -123,8 +127,10 @@ def table_lines(report) -> list[str]:
     right = {0, 3, 4, 5}
 
     def line(cells):
-        return "  ".join(c.rjust(w) if k in right else c.ljust(w)
-                         for k, (c, w) in enumerate(zip(cells, widths, strict=True))).rstrip()
+        parts = [c.rjust(w) if k in right else c.ljust(w) for k, (c, w) in enumerate(zip(cells, widths, strict=True))]
+        # one space after "line" and before "k meas": their headers are wider than their values, which so
+        # keep two; the room goes to the ids and their marks
+        return (parts[0] + " " + "  ".join(parts[1:3]) + " " + "  ".join(parts[3:])).rstrip()
 
     return [line(TABLE_HEADER), "-" * len(line(TABLE_HEADER)), *(line(row) for row in rows)]
 
@@ -136,6 +142,12 @@ def _print_table(report) -> None:
     out += table_lines(report)
     out += wrap_text("k meas in M^-1 s^-1; pred = log10 of the predicted k (M^-1 s^-1) with its 95 % interval; "
                      "log r = log10(k_measured/k_predicted); inside = within the combined 95 % interval")
+    from ..library.provenance import legend_lines
+
+    pairs = {(r.oxidant, r.oxidant_provenance) for r in report.rows} | {(r.reductant, r.reductant_provenance)
+                                                                         for r in report.rows}
+    for legend in legend_lines([kind for _, kind in sorted(pairs)]):
+        out += wrap_text(legend)
     out.append("")
     for r in (r for r in report.rows if r.verdict == "beyond_10x"):
         out += wrap_text(f"line {r.line}: {r.oxidant} + {r.reductant}: {r.verdict_text}")

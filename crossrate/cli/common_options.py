@@ -36,8 +36,24 @@ def seed_value(text: str) -> int:
     return value
 
 
+def add_layer_options(parser: argparse.ArgumentParser, dest_prefix: str = "") -> None:
+    """--demo, --no-starter, --no-bundled (dest_prefix keeps the root parser's apart from a subcommand's)."""
+    parser.add_argument(
+        "--demo", action="store_true", dest=dest_prefix + "demo",
+        help="also load the invented demo library (made-up Halden Lake couples, marked '!' invented)",
+    )
+    parser.add_argument(
+        "--no-starter", action="store_true", dest=dest_prefix + "no_starter",
+        help="leave out the bundled starter library (literature values recalled from memory)",
+    )
+    parser.add_argument(
+        "--no-bundled", action="store_true", dest=dest_prefix + "no_bundled",
+        help="leave out every bundled library (starter and demo)",
+    )
+
+
 def add_library_option(parser: argparse.ArgumentParser) -> None:
-    """--library PATH (repeatable), --no-bundled."""
+    """--library PATH (repeatable), --demo, --no-starter, --no-bundled."""
     parser.add_argument(
         "--library",
         action="append",
@@ -45,9 +61,7 @@ def add_library_option(parser: argparse.ArgumentParser) -> None:
         metavar="PATH",
         help="library file added on top of the layered set (bundled, group, personal); repeatable",
     )
-    parser.add_argument(
-        "--no-bundled", action="store_true", help="leave out the bundled libraries (demo and starter)"
-    )
+    add_layer_options(parser)
 
 
 def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: str = "the couples' own") -> None:
@@ -91,10 +105,34 @@ def conditions_from_args(args):
     )
 
 
-def load_set(args):
-    """The layered CoupleSet: bundled (unless --no-bundled), group, personal, then each --library."""
+def layer_choice(args) -> dict:
+    """Keyword arguments of load_layered from the layer options, given before or after the command."""
+    from ..errors import CrossrateError
+
+    def flag(name):
+        return bool(getattr(args, name, False) or getattr(args, "root_" + name, False))
+
+    if flag("demo") and flag("no_bundled"):
+        raise CrossrateError("--demo and --no-bundled contradict each other (the demo is a bundled library); "
+                             "expected one of them (--demo --no-starter loads the demo alone)")
+    return {"bundled": not flag("no_bundled"), "starter": not flag("no_starter"), "demo": flag("demo")}
+
+
+#: What to do about an empty set, added to the 'no couples loaded' line of the CLI.
+EMPTY_HINT = ("expected couples: give your own file with --library FILE (`crossrate library new FILE` starts "
+              "one), or add --demo for the invented demo couples")
+
+
+def load_set(args, allow_empty: bool = False):
+    """The layered CoupleSet: bundled starter (unless --no-starter / --no-bundled), the invented demo (with
+    --demo), group, personal, then each --library. An empty set is a CrossrateError saying which layers
+    were searched, unless allow_empty."""
+    from ..errors import CrossrateError
     from ..library.layers import load_layered
 
     # --library may stand before the command (root option) or after it; both count, root ones first.
     paths = tuple(getattr(args, "root_library", []) or []) + tuple(getattr(args, "library", []) or [])
-    return load_layered(extra_paths=paths, bundled=not getattr(args, "no_bundled", False))
+    cs = load_layered(extra_paths=paths, **layer_choice(args))
+    if not len(cs) and not allow_empty:
+        raise CrossrateError(f"{cs.empty_reason()}; {EMPTY_HINT}")
+    return cs

@@ -159,7 +159,14 @@ def _selected(cs, tags, medium):
 def run_list(args) -> int:
     from ..library.couple_export import couple_record, records_csv, records_json
 
-    cs = load_set(args)
+    cs = load_set(args, allow_empty=True)
+    if not len(cs):
+        from .common_options import EMPTY_HINT
+
+        # said in words; JSON and CSV stay machine-readable (empty), the words go to stderr
+        print(f"{cs.empty_reason()}; {EMPTY_HINT}", file=sys.stdout if args.format == "table" else sys.stderr)
+        if args.format == "table":
+            return 0
     couples = _selected(cs, args.tag, args.medium)
     if args.format in ("json", "csv"):
         records = [couple_record(c) for c in couples]
@@ -211,7 +218,9 @@ def run_show(args) -> int:
     lines = [f"couple {c.id}: {c.name}"]
     if o is not None:
         lines.append(f"  from            {o.path}:{o.line} ({o.layer} layer)")
-    if not c.verified:
+    if c.invented:
+        lines.append("  INVENTED        made-up demo values, not measurements; never use them for real predictions")
+    elif not c.verified:
         lines.append("  UNVERIFIED      values recalled or estimated, not checked against the primary source")
     for s in FIELD_SPECS:
         if s.name == "name":

@@ -66,6 +66,9 @@ def build_parser(only: str | None = None) -> CrossrateArgumentParser:
         metavar="PATH",
         help="extra library file on top of the layered set (repeatable); before or after the command",
     )
+    from .common_options import add_layer_options
+
+    add_layer_options(parser, dest_prefix="root_")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     for name in (only,) if only else COMMAND_MODULES:
         try:
@@ -87,10 +90,38 @@ def os_error_text(exc) -> str:
     return str(exc)
 
 
+def demo_hint(exc, args) -> str:
+    """'; hl-med2 is a couple of the invented demo library: add --demo' when an unknown couple is one of the
+    demo's and the demo was not loaded (the README's examples all use --demo)."""
+    import re
+
+    if getattr(args, "demo", False) or getattr(args, "root_demo", False):
+        return ""
+    unknown = re.findall(r"unknown couple '([^']+)'", str(exc))
+    if not unknown:
+        return ""
+    from ..errors import CrossrateError
+    from ..library.layers import DEMO_FILE, bundled_dir
+    from ..library.toml_reader import read_library_file
+
+    try:
+        demo_ids = {c.id for c in read_library_file(bundled_dir() / DEMO_FILE, "demo").couples}
+    except (CrossrateError, OSError):
+        return ""
+    named = sorted(set(unknown) & demo_ids)
+    if not named:
+        return ""
+    if len(named) > 2:
+        return f"; {named[0]} and {len(named) - 1} more are couples of the invented demo library: add --demo"
+    return f"; {' and '.join(named)} {'is a couple' if len(named) == 1 else 'are couples'} of the invented demo " \
+           "library: add --demo"
+
+
 def _run_tui(args) -> int:
     from ..tui.app import run_app
+    from .common_options import layer_choice
 
-    return run_app(library_paths=args.root_library)
+    return run_app(library_paths=args.root_library, layers=layer_choice(args))
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -107,7 +138,7 @@ def main(argv: list[str] | None = None) -> int:
     except CrossrateError as exc:
         if args.debug:
             raise
-        print(f"crossrate: {exc}", file=sys.stderr)
+        print(f"crossrate: {exc}{demo_hint(exc, args)}", file=sys.stderr)
         return 2
     except BrokenPipeError:
         # The reader went away (`| head`): not an error of the user's input. Point stdout at devnull so the

@@ -99,6 +99,7 @@ _KEEP_PATTERNS = (
     re.compile(r"(?<==) (?=[-+\d(\[])"),
     re.compile(r"(?<=Delta) (?=G)|(?<=G) (?=deg)"),
     re.compile(r"(?<=plateau) (?=10\^)"),
+    re.compile(r"(?<=\([!?]) (?=invented\b|unverified\b)"),
     re.compile(r"(?<=\+/-) (?=[\d.])|(?<=±) (?=[\d.])|(?<=\d) (?=\+/-|±)"),
 )
 

@@ -11,6 +11,7 @@ import shutil
 import sys
 import textwrap
 
+from ..library.provenance import legend_lines, provenance_mark
 from .render_common import use_rich
 
 HEADERS = ("id", "name", "E", "scale", "k_self", "medium", "I", "layer")
@@ -24,11 +25,12 @@ def _fmt_k(k) -> str:
 
 
 def couple_rows(couples) -> list[tuple[str, ...]]:
-    """Cells (text) of each couple in HEADERS order; '?' marks unverified values, '*' excited states."""
+    """Cells (text) of each couple in HEADERS order; '!' marks invented values, '?' unverified ones, '*'
+    excited states."""
     rows = []
     for c in couples:
         star = "*" if c.E00 is not None else ""
-        q = "" if c.verified else "?"
+        q = provenance_mark(c)
         rows.append((c.id, c.name, f"{c.effective_E:+.3f}{star}{q}", c.E_scale,
                      _fmt_k(c.k_self) + (q if c.k_self is not None else ""), c.medium,
                      f"{c.ionic_strength:g}", c.origin.layer if c.origin else ""))
@@ -71,7 +73,7 @@ def terminal_width(stream) -> int:
 
 
 def print_couple_list(couples, n_total: int, shadowed, stream=None) -> None:
-    """The table and its notes: units, '*' and '?' marks, shadowed couples."""
+    """The table and its notes: units, '*', '!' and '?' marks, shadowed couples."""
     stream = stream or sys.stdout
     width = terminal_width(stream)
     rows = couple_rows(couples)
@@ -80,10 +82,7 @@ def print_couple_list(couples, n_total: int, shadowed, stream=None) -> None:
              "I = ionic strength in M (the conditions E and k_self were measured at)"]
     if any(c.E00 is not None for c in couples):
         notes.append("* excited-state potential (E with E00 applied)")
-    n_unverified = sum(not c.verified for c in couples)
-    if n_unverified:
-        notes.append(f"? unverified value ({n_unverified} of these couples): recalled or estimated, not checked "
-                     "against the primary source")
+    notes += legend_lines(couples)
     if shadowed:
         shown = ", ".join(f"{s.couple_id} ({s.hidden.layer} -> {s.winner.layer})" for s in shadowed[:8])
         more = f" and {len(shadowed) - 8} more" if len(shadowed) > 8 else ""

@@ -7,14 +7,17 @@ from contextlib import contextmanager
 
 
 def map_csv(rate_map) -> str:
-    """CSV matrix: header `oxidant\\reductant,<ids>`, one row per oxidant, log10 k_obs (log10 M^-1 s^-1)
-    with 4 decimals, empty cells where the pair cannot be computed."""
+    """CSV matrix: header `oxidant\\reductant,<ids>,oxidant_provenance`, one row per oxidant, log10 k_obs
+    (log10 M^-1 s^-1) with 4 decimals, empty cells where the pair cannot be computed; the last column says
+    how far the row's couple can be trusted (invented, unverified or verified; rows and columns are the
+    same couples)."""
     buf = io.StringIO()
     writer = csv.writer(buf, lineterminator="\n")
-    writer.writerow(["oxidant\\reductant", *rate_map.ids])
+    writer.writerow(["oxidant\\reductant", *rate_map.ids, "oxidant_provenance"])
     values = rate_map.log10_k_obs
+    kinds = rate_map.provenance or ("",) * len(rate_map.ids)
     for i, cid in enumerate(rate_map.ids):
-        writer.writerow([cid, *("" if v != v else f"{v:.4f}" for v in values[i].tolist())])
+        writer.writerow([cid, *("" if v != v else f"{v:.4f}" for v in values[i].tolist()), kinds[i]])
     return buf.getvalue()
 
 

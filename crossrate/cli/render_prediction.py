@@ -6,6 +6,7 @@ deterministic (the golden tests compare it).
 
 import sys
 
+from ..library.provenance import labelled_id
 from ..services.wording import with_symbols
 from .render_common import (
     CLOSING_CAUTION,
@@ -97,9 +98,11 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
 
 def plain_prediction(p, sym: dict[str, str]) -> str:
     """The fixed-width plain-text table (ends with the closing caution line and a newline)."""
+    ox = labelled_id(p.oxidant, p.oxidant_provenance)
+    red = labelled_id(p.reductant, p.reductant_provenance)
     lines = [
         "Cross reaction  Ox1 + Red2 -> Red1 + Ox2",
-        *wrap_item(f"oxidant (couple 1): {p.oxidant}   reductant (couple 2): {p.reductant}", bullet=""),
+        *wrap_item(f"oxidant (couple 1): {ox}   reductant (couple 2): {red}", bullet=""),
         "",
     ]
     for title, rows in prediction_sections(p, sym):
@@ -137,8 +140,10 @@ def _rich_prediction(p, stream) -> None:
     sym = symbols(stream)
     console = Console(file=stream, highlight=False)
     console.print(Text("Cross reaction  Ox1 + Red2 -> Red1 + Ox2", style="bold"))
-    console.print(Text.assemble("  oxidant (couple 1): ", (p.oxidant, "bold cyan"), "   reductant (couple 2): ",
-                                (p.reductant, "bold cyan")))
+    ox = labelled_id(p.oxidant, p.oxidant_provenance)[len(p.oxidant):]
+    red = labelled_id(p.reductant, p.reductant_provenance)[len(p.reductant):]
+    console.print(Text.assemble("  oxidant (couple 1): ", (p.oxidant, "bold cyan"), ox, "   reductant (couple 2): ",
+                                (p.reductant, "bold cyan"), red))
     print_rich_sections(console, prediction_sections(p, sym), WIDTHS, "k_obs")
     console.print()
     console.print(Text("Regime", style="bold underline"))

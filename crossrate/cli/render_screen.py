@@ -4,10 +4,11 @@ import csv
 import io
 import sys
 
+from ..library.provenance import labelled_id, legend_lines, marked_id
 from .render_common import CLOSING_CAUTION, fmt_fixed, pow10, symbols, use_rich, wrap_line
 
 CSV_COLUMNS = (
-    "rank", "partner", "oxidant", "reductant", "log10_k_obs", "log10_k_obs_low95_linear",
+    "rank", "partner", "partner_provenance", "oxidant", "reductant", "log10_k_obs", "log10_k_obs_low95_linear",
     "log10_k_obs_high95_linear", "log10_k_obs_sd_linear", "dG0_kJ_per_mol", "dG0_prime_kJ_per_mol",
     "lambda_kJ_per_mol", "log10_k_act", "log10_k_diff", "regime", "diffusion_controlled",
 )
@@ -16,9 +17,10 @@ CSV_COLUMNS = (
 def heading(result) -> str:
     """Two lines saying what was screened (the reaction on the second)."""
     t = result.target
+    who = labelled_id(t, result.target_provenance)
     if result.role == "oxidant":
-        return f"Screening {t} as oxidant:\n  Ox({t}) + Red(partner) -> Red({t}) + Ox(partner)"
-    return f"Screening {t} as reductant:\n  Ox(partner) + Red({t}) -> Red(partner) + Ox({t})"
+        return f"Screening {who} as oxidant:\n  Ox({t}) + Red(partner) -> Red({t}) + Ox(partner)"
+    return f"Screening {who} as reductant:\n  Ox(partner) + Red({t}) -> Red(partner) + Ox({t})"
 
 
 def count_line(result) -> str:
@@ -46,15 +48,25 @@ def table_rows(result, sym) -> tuple[list[str], list[list[str]]]:
     """(header, rows) of the table form."""
     header = ["#", "partner", "k_obs", "log10 k", "95 % (linear)", sym["dG0"], "regime"]
     t = result.table
+    kinds = _kinds(result)
     rows = []
     for i, partner in enumerate(result.partner):
         lo, hi = result.log10_k_obs_95_linear[i]
         regime = t.regime[i] + (" (D)" if t.diffusion_controlled[i] else "")
         rows.append([
-            str(i + 1), partner, pow10(t.log10_k_obs[i]), fmt_fixed(t.log10_k_obs[i], 2),
+            str(i + 1), marked_id(partner, kinds[i]), pow10(t.log10_k_obs[i]), fmt_fixed(t.log10_k_obs[i], 2),
             f"{fmt_fixed(lo, 2)} to {fmt_fixed(hi, 2)}", fmt_fixed(t.dG0_kJ_per_mol[i], 2), regime,
         ])
     return header, rows
+
+
+def _kinds(result) -> tuple[str, ...]:
+    return result.partner_provenance or ("",) * len(result.partner)
+
+
+def legend(result) -> list[str]:
+    """The '!' invented and '?' unverified legend lines of the partners shown (target included)."""
+    return legend_lines(list(_kinds(result)), "partners")
 
 
 def plain_screen(result, sym) -> str:
@@ -73,6 +85,8 @@ def plain_screen(result, sym) -> str:
     else:
         out.append("(no partner passes the filters)")
     out.append("")
+    for text in legend(result):
+        out.extend(wrap_line(text))
     out.extend(wrap_line(count_line(result)))
     out.extend(wrap_line(units_line(sym)))
     out.extend(wrap_line(CLOSING_CAUTION))
@@ -95,6 +109,8 @@ def _rich_screen(result, stream) -> None:
     for r in rows:
         table.add_row(*r)
     console.print(table)
+    for text in legend(result):
+        console.print(Text(text, style="dim"))
     console.print(count_line(result))
     console.print(Text(units_line(sym), style="dim"))
     console.print(Text(CLOSING_CAUTION, style="italic"))
@@ -118,10 +134,11 @@ def screen_csv(result) -> str:
     writer = csv.writer(buf, lineterminator="\n")
     writer.writerow(CSV_COLUMNS)
     t = result.table
+    kinds = _kinds(result)
     for i, partner in enumerate(result.partner):
         lo, hi = result.log10_k_obs_95_linear[i]
         writer.writerow([
-            i + 1, partner, t.oxidant[i], t.reductant[i], _num(t.log10_k_obs[i], 5), _num(lo, 5), _num(hi, 5),
+            i + 1, partner, kinds[i], t.oxidant[i], t.reductant[i], _num(t.log10_k_obs[i], 5), _num(lo, 5), _num(hi, 5),
             _num(t.log10_k_obs_sd_linear[i], 5), _num(t.dG0_kJ_per_mol[i], 4),
             _num(t.dG0_prime_kJ_per_mol[i], 4), _num(t.lambda_kJ_per_mol[i], 4), _num(t.log10_k_act[i], 5),
             _num(t.log10_k_diff[i], 5), t.regime[i], "true" if t.diffusion_controlled[i] else "false",
@@ -133,6 +150,7 @@ def screen_json(result) -> dict:
     """JSON-safe dict: target, role, counts and one record per kept pair."""
     return {
         "target": result.target,
+        "target_provenance": result.target_provenance,
         "role": result.role,
         "candidates": result.candidates,
         "not_computable": result.not_computable,

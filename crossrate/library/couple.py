@@ -67,6 +67,7 @@ class Couple:
     notes: str = ""
     tags: tuple[str, ...] = ()
     verified: bool = False
+    invented: bool = False
     origin: Origin | None = field(default=None, compare=False)
 
     @property
@@ -79,6 +80,13 @@ class Couple:
         if self.E00 is None:
             return self.E
         return self.E + self.E00 if self.excited_form == "ox" else self.E - self.E00
+
+    @property
+    def provenance(self) -> str:
+        """'invented' (made-up values), 'unverified' (recalled or estimated) or 'verified'."""
+        if self.invented:
+            return "invented"
+        return "verified" if self.verified else "unverified"
 
     @property
     def has_rate_data(self) -> bool:

@@ -47,6 +47,8 @@ def couple_to_values(couple: Couple, defaults: dict | None = None, existing: dic
             continue
         if n == "verified" and existing is not None and v is False:
             continue
+        if n == "invented" and v is False:
+            continue  # only made-up couples say so; a real couple's table is not cluttered with it
         out[n] = v
     return out
 

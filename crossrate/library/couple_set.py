@@ -66,6 +66,7 @@ class CoupleSet:
         files: list[str] | None = None,
         file_sha256: dict[str, str] | None = None,
         file_layers: dict[str, str] | None = None,
+        searched: tuple[tuple[str, str, bool], ...] | None = None,
     ):
         self._couples: dict[str, Couple] = {}
         for c in couples:
@@ -78,6 +79,19 @@ class CoupleSet:
         self.file_sha256: dict[str, str] = dict(file_sha256 or {})
         self.file_layers: dict[str, str] = dict(file_layers or {})
         self._index = {cid: i for i, cid in enumerate(self._couples)}
+        #: (layer, path, read) of every file the layered loader looked for, to say why a set is empty.
+        self.searched = tuple(searched) if searched is not None else None
+
+    def empty_reason(self) -> str:
+        """'no couples loaded: ...' naming the layers and files that were searched (for an empty set)."""
+        if self.searched is None:
+            return "no couples loaded: the set was built empty"
+        if not self.searched:
+            return ("no couples loaded: every layer was left out (no bundled, group or personal library and no "
+                    "library file given)")
+        parts = [f"the {layer} layer ({path}: {'no couple in it' if read else 'no such file'})"
+                 for layer, path, read in self.searched]
+        return "no couples loaded: searched " + ", ".join(parts)
 
     def __len__(self) -> int:
         return len(self._couples)
@@ -99,7 +113,10 @@ class CoupleSet:
         try:
             return self._couples[couple_id]
         except KeyError:
-            raise UnknownCoupleError(couple_id, self.suggest(couple_id)) from None
+            raise UnknownCoupleError(couple_id, self.suggest(couple_id), self._empty_note()) from None
+
+    def _empty_note(self) -> str:
+        return self.empty_reason() if not self._couples else ""
 
     def index_of(self, ids) -> np.ndarray:
         """Integer positions of ids in set order (UnknownCoupleError for the first unknown one)."""
@@ -110,7 +127,7 @@ class CoupleSet:
             return np.fromiter(map(self._index.__getitem__, ids), dtype=np.intp, count=len(ids))
         except KeyError as exc:
             cid = exc.args[0]
-            raise UnknownCoupleError(cid, self.suggest(cid)) from None
+            raise UnknownCoupleError(cid, self.suggest(cid), self._empty_note()) from None
 
     def E_on_root(self, couple: Couple) -> tuple[float, str]:
         """(effective potential in V on the root scale, root scale key) for one couple."""

@@ -1,8 +1,11 @@
-"""The layered couple set: bundled libraries, then the group's, then a personal one, then --library files.
+"""The layered couple set: the bundled starter library, the invented demo (only when asked for), then the
+group's library, a personal one, then --library files.
 
 A couple in a later layer replaces (shadows) one of the same id from an earlier layer; every shadowing
 is recorded. Where the files are:
-- bundled: `libraries/starter.toml` and `libraries/demo.toml` of this checkout;
+- bundled: `starter.toml` of the bundled libraries (see `bundled_dir`), left out with starter=False;
+- demo: `demo.toml` beside it, the invented Halden Lake couples, read only with demo=True (never by default:
+  invented numbers must not creep into real predictions);
 - group: the paths in the environment variable CROSSRATE_GROUP_LIBRARY (several separated by ':'), else
   `group_library` (a path or a list of paths) in `$XDG_CONFIG_HOME/crossrate/config.toml`
   (`~/.config/crossrate/config.toml` when XDG_CONFIG_HOME is unset); a configured group file that does not
@@ -30,8 +33,9 @@ if TYPE_CHECKING:
     from .toml_reader import LibraryFile
 from .toml_loads import loads
 
-LAYERS = ("bundled", "group", "personal", "cli")
-BUNDLED_FILES = ("starter.toml", "demo.toml")
+LAYERS = ("bundled", "demo", "group", "personal", "cli")
+STARTER_FILE = "starter.toml"
+DEMO_FILE = "demo.toml"
 GROUP_ENV = "CROSSRATE_GROUP_LIBRARY"
 PERSONAL_ENV = "CROSSRATE_PERSONAL_LIBRARY"
 
@@ -46,9 +50,19 @@ class LayerFile:
     must_exist: bool = True
 
 
+#: Where an installed crossrate (wheel, `pip install .`) keeps the bundled libraries, inside the package.
+INSTALLED_DIR = "bundled_libraries"
+
+
 def bundled_dir() -> Path:
-    """The `libraries/` folder of this checkout (beside the crossrate package)."""
-    return Path(__file__).resolve().parents[2] / "libraries"
+    """The folder of the bundled libraries: `crossrate/bundled_libraries/` of an installed package (the build
+    maps the top-level `libraries/` folder there, see pyproject.toml), else `libraries/` beside the package
+    (a source checkout or an editable install, where the package is the checkout's own folder)."""
+    package = Path(__file__).resolve().parents[1]
+    installed = package / INSTALLED_DIR
+    if installed.is_dir():
+        return installed
+    return package.parent / "libraries"
 
 
 def config_path() -> Path:
@@ -96,14 +110,21 @@ def _env_paths(name: str) -> list[Path]:
     return [Path(os.path.expanduser(p)) for p in value.split(os.pathsep) if p.strip()]
 
 
-def layer_files(extra_paths=(), bundled: bool = True, group: bool = True, personal: bool = True) -> list[LayerFile]:
-    """The files of the layered set, in layer order (see the module docstring for where they come from)."""
+def layer_files(extra_paths=(), bundled: bool = True, group: bool = True, personal: bool = True,
+                starter: bool = True, demo: bool = False) -> list[LayerFile]:
+    """The files of the layered set, in layer order (see the module docstring for where they come from).
+
+    bundled=False leaves out every bundled layer (starter and demo); starter=False only the starter library;
+    demo=True adds the invented demo library.
+    """
     out: list[LayerFile] = []
     if bundled:
         folder = bundled_dir()
-        for name in BUNDLED_FILES:
-            if (folder / name).exists():
-                out.append(LayerFile("bundled", folder / name, "bundled with crossrate"))
+        # A bundled file missing is an installation fault: said as a problem, never silently skipped.
+        if starter:
+            out.append(LayerFile("bundled", folder / STARTER_FILE, "bundled with crossrate"))
+        if demo:
+            out.append(LayerFile("demo", folder / DEMO_FILE, "invented demo library, asked for with --demo"))
     config = read_config() if (group or personal) else {}
     cfg = str(config_path())
     if group:
@@ -142,19 +163,21 @@ def scale_conflicts(lf: "LibraryFile | LoadedLibrary", merged: dict[str, tuple[P
     return problems
 
 
-def load_layered(extra_paths=(), bundled: bool = True, group: bool = True, personal: bool = True) -> CoupleSet:
+def load_layered(extra_paths=(), bundled: bool = True, group: bool = True, personal: bool = True,
+                 starter: bool = True, demo: bool = False) -> CoupleSet:
     """Read every layer's files and combine them into one CoupleSet (later layers shadow earlier ones).
 
-    extra_paths: --library files (layer "cli"). Raises LibraryError listing the problems of every file.
+    extra_paths: --library files (layer "cli"); bundled, starter, demo as in layer_files. Raises
+    LibraryError listing the problems of every file.
     """
-    couple_set, problems = load_layered_partial(extra_paths, bundled, group, personal)
+    couple_set, problems = load_layered_partial(extra_paths, bundled, group, personal, starter, demo)
     if problems:
         raise LibraryError(problems)
     return couple_set
 
 
-def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = True,
-                         personal: bool = True) -> tuple[CoupleSet, list[Problem]]:
+def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = True, personal: bool = True,
+                         starter: bool = True, demo: bool = False) -> tuple[CoupleSet, list[Problem]]:
     """Like load_layered, but a file with problems is left out instead of failing the whole set:
     (the CoupleSet of the files that are fine, every problem of the files left out). A left-out file is not
     among the set's files, so nothing is ever written to it. LibraryError only for a malformed config file.
@@ -167,7 +190,8 @@ def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = Tru
     shas: dict[str, str] = {}
     layers: dict[str, str] = {}
     seen: set[str] = set()
-    for lf_spec in layer_files(extra_paths, bundled, group, personal):
+    specs = layer_files(extra_paths, bundled, group, personal, starter, demo)
+    for lf_spec in specs:
         real = os.path.realpath(lf_spec.path)
         if real in seen:
             continue
@@ -203,4 +227,6 @@ def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = Tru
         files,
         file_sha256=shas,
         file_layers=layers,
+        searched=tuple((lf.layer, str(lf.path), os.path.realpath(lf.path) in {os.path.realpath(f) for f in files})
+                       for lf in specs),
     ), problems

@@ -138,6 +138,7 @@ FIELD_SPECS: tuple[FieldSpec, ...] = (
     _S("notes", "text", "", "free notes"),
     _S("tags", "text list", "", "labels such as 'aqua' or 'spin-change'"),
     _S("verified", "boolean", "", "true once the values were checked against the primary source"),
+    _S("invented", "boolean", "", "true for made-up values (demos, teaching): never measurements, never verified"),
 )
 del _S
 

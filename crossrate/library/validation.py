@@ -375,6 +375,9 @@ def _cross_checks(values, raw, ctx, found):
     scale = values.get("E_scale")
     if scale is not None and scale not in ctx.scales:
         found.append(("E_scale", _membership("E_scale", scale, ctx.scales)))
+    if values.get("invented") is True and values.get("verified") is True:
+        found.append(("verified", "true while invented = true; expected verified = false (or left out): made-up "
+                      "values cannot be checked against a primary source"))
     has_e00 = "E00" in raw
     if has_e00 and "excited_form" not in raw:
         found.append(("excited_form", 'missing while E00 is given; expected "ox" or "red": the form that is excited'))

@@ -74,6 +74,9 @@ class PairCheck:
     line: int | None = None
     label: str | None = None
     prediction: Prediction | None = field(default=None, compare=False, repr=False)
+    #: "invented", "unverified" or "verified" for each couple of the pair (from the prediction).
+    oxidant_provenance: str = ""
+    reductant_provenance: str = ""
 
     @property
     def factor(self) -> float:
@@ -148,6 +151,8 @@ def check_pair(
     return PairCheck(
         oxidant=prediction.oxidant,
         reductant=prediction.reductant,
+        oxidant_provenance=prediction.oxidant_provenance,
+        reductant_provenance=prediction.reductant_provenance,
         k_measured=float(k_measured),
         log10_k_measured=log_meas,
         k_measured_log10_sd=sd,

@@ -248,6 +248,8 @@ def predict(
         warnings=warnings,
         estimated=estimated,
         kappa_el12=float(np.exp(f(res.ln_kappa12))),
+        oxidant_provenance=ox.provenance,
+        reductant_provenance=red.provenance,
     )
 
 

@@ -16,7 +16,10 @@ def pair_warnings(ox, red, rc, res, estimated, defaulted) -> tuple[str, ...]:
     """Warnings for a prediction of ox + red under resolved conditions rc with core result res."""
     out = []
     for c in (ox, red):
-        if not c.verified:
+        if c.invented:
+            out.append(f"{c.id}: invented values (made-up demo data, not measurements); never use them for real "
+                       "predictions")
+        elif not c.verified:
             out.append(f"{c.id}: values not verified against the primary source (recalled or estimated)")
         if c.k_self is not None:
             moved = []

@@ -46,6 +46,8 @@ class RateMap:
     ionic_strength_M: float | None
     Z: float
     diffusion: bool
+    #: "invented", "unverified" or "verified" for each couple of `ids`.
+    provenance: tuple[str, ...] = ()
 
     def __len__(self) -> int:
         return len(self.ids)
@@ -64,6 +66,7 @@ class RateMap:
         return json_safe(
             {
                 "ids": list(self.ids),
+                "provenance": list(self.provenance),
                 "media": list(self.media),
                 "medium": self.medium,
                 "conditions": {
@@ -161,8 +164,10 @@ def rate_map(
     out.setflags(write=False)
     media = tuple(a.medium[idx].tolist())
     single = cond.medium if cond.medium is not None else (media[0] if media and len(set(media)) == 1 else None)
+    map_ids = tuple(a.ids[i] for i in idx.tolist())
     return RateMap(
-        ids=tuple(a.ids[i] for i in idx.tolist()),
+        ids=map_ids,
+        provenance=tuple(couple_set[i].provenance for i in map_ids),
         media=media,
         medium=single,
         log10_k_obs=out,

@@ -93,6 +93,9 @@ class Prediction(_Record):
     warnings: tuple[str, ...]
     estimated: tuple[str, ...]
     kappa_el12: float = 1.0
+    #: How far each couple's values can be trusted: "invented" (made-up), "unverified" or "verified".
+    oxidant_provenance: str = ""
+    reductant_provenance: str = ""
 
     @property
     def k_obs(self) -> float:

@@ -47,6 +47,9 @@ class ScreenResult(_Record):
     not_computable: int
     not_computable_reasons: tuple[tuple[str, int], ...]
     filtered_out: int
+    #: "invented", "unverified" or "verified" for the target and for each kept partner.
+    target_provenance: str = ""
+    partner_provenance: tuple[str, ...] = ()
 
     def __len__(self) -> int:
         return len(self.partner)
@@ -54,10 +57,12 @@ class ScreenResult(_Record):
     def records(self) -> list[dict]:
         """One JSON-safe dict per kept row (table columns plus partner and the linear 95 % interval)."""
         out = []
-        for rec, partner, (lo, hi) in zip(
-            self.table.records(), self.partner, self.log10_k_obs_95_linear, strict=True
+        kinds = self.partner_provenance or ("",) * len(self.partner)
+        for rec, partner, kind, (lo, hi) in zip(
+            self.table.records(), self.partner, kinds, self.log10_k_obs_95_linear, strict=True
         ):
-            rec = {"partner": partner, **rec, "log10_k_obs_95_linear": json_safe([lo, hi])}
+            rec = {"partner": partner, "partner_provenance": kind, **rec,
+                   "log10_k_obs_95_linear": json_safe([lo, hi])}
             out.append(rec)
         return out
 
@@ -164,11 +169,14 @@ def screen(
     k = np.asarray(ranked.log10_k_obs, dtype=float)
     interval = tuple(zip((k - Z95 * sd).tolist(), (k + Z95 * sd).tolist(), strict=True))
     ids = couple_set.arrays.ids
+    kept = tuple(map(ids.__getitem__, partners[rows].tolist()))
     return ScreenResult(
         target=ids[t],
         role=role,
         table=ranked,
-        partner=tuple(map(ids.__getitem__, partners[rows].tolist())),
+        partner=kept,
+        target_provenance=couple_set[ids[t]].provenance,
+        partner_provenance=tuple(couple_set[p].provenance for p in kept),
         log10_k_obs_95_linear=interval,
         candidates=int(partners.size),
         not_computable=int((~ok).sum()),

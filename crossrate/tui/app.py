@@ -16,7 +16,7 @@ class CrossrateApp(App):
     BINDINGS = [Binding("ctrl+q", "quit_safely", "quit", priority=True)]
 
     def __init__(self, library_paths=(), couple_set=None, layers: dict | None = None, **kwargs):
-        """layers: keyword arguments for load_layered (bundled, group, personal), e.g. to leave some out."""
+        """layers: keyword arguments for load_layered (bundled, starter, demo, group, personal)."""
         super().__init__(**kwargs)
         self.library_paths = list(library_paths)
         self.layers = dict(layers or {})
@@ -80,11 +80,11 @@ class CrossrateApp(App):
         )
 
 
-def run_app(library_paths=()) -> int:
-    """Run the workbench in this terminal; returns the exit code."""
+def run_app(library_paths=(), layers: dict | None = None) -> int:
+    """Run the workbench in this terminal; returns the exit code. layers: bundled / starter / demo flags."""
     import sys
 
-    app = CrossrateApp(library_paths=library_paths)
+    app = CrossrateApp(library_paths=library_paths, layers=layers)
     code = app.run()
     if app.load_problem:
         print(f"crossrate: {app.load_problem}", file=sys.stderr)

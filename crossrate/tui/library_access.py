@@ -127,11 +127,12 @@ def write_couple(kind: str, couple_set, path: str, couple_id: str, values: dict 
 
 
 def writable_files(couple_set) -> list[tuple[str, str]]:
-    """(path, layer) of the files of the set, bundled ones last (they are usually read-only installs)."""
+    """(path, layer) of the files of the set, bundled ones (starter, demo) last (they are usually read-only
+    installs)."""
     layers: dict[str, str] = dict(getattr(couple_set, "file_layers", {}) or {})
     for c in couple_set:
         if c.origin is not None:
             layers.setdefault(c.origin.path, c.origin.layer)
     for f in couple_set.files:
         layers.setdefault(f, "file")
-    return sorted(layers.items(), key=lambda kv: (kv[1] == "bundled", kv[0]))
+    return sorted(layers.items(), key=lambda kv: (kv[1] in ("bundled", "demo"), kv[0]))

@@ -18,7 +18,7 @@ def demo_set():
     layers = pytest.importorskip("crossrate.library.layers")
     if not (EXAMPLES.parent / "demo.toml").exists():
         pytest.skip("libraries/demo.toml not present")
-    return layers.load_layered(bundled=True, group=False, personal=False)
+    return layers.load_layered(bundled=True, group=False, personal=False, demo=True)
 
 
 def test_every_example_says_it_is_invented():

@@ -47,7 +47,8 @@ def test_analysis_forms_fit_80_columns_and_keep_ids_whole(run_cli, width80, argv
     from pathlib import Path
 
     monkeypatch.chdir(Path(__file__).resolve().parents[2])
-    rc, out, err = run_cli(*argv, library=False)
+    demo = [] if argv[0] == "fit" else ["--demo"]  # fit reads no library
+    rc, out, err = run_cli(*argv, *demo, library=False)
     assert rc == 0, err
     assert _widest(out) <= 80, out
     assert "…" not in out  # no id or value cut short

@@ -65,7 +65,7 @@ def test_list_table_marks_unverified_and_shadowing(run, base_file, write_lib):
     assert rc == 0 and err == ""
     row = next(ln for ln in out.splitlines() if ln.lstrip().startswith("t-two"))
     assert "-0.200?" in row and "5e+06?" in row and "cli" in row  # unverified values marked
-    assert "? unverified value (1 of these couples)" in out
+    assert "? unverified: values recalled or estimated, not checked against the primary source (1 of these" in out
     assert "3 shadowed by a later layer: t-one (cli -> cli), t-two (cli -> cli), t-three (cli -> cli)" in out
 
 
@@ -88,7 +88,48 @@ def test_list_filters_and_formats(run, base_file):
 def test_list_bundled_by_default(run):
     rc, out, _ = run("library", "list", "--format", "json")
     ids = {r["id"] for r in json.loads(out)}
-    assert rc == 0 and {"fe-aq", "hl-med3"} <= ids
+    assert rc == 0 and "fe-aq" in ids and not any(i.startswith("hl-") for i in ids)  # the demo only when asked
+
+
+def test_each_bundled_layer_left_out_on_its_own(run):
+    def ids(*args):
+        rc, out, err = run("library", "list", "--format", "json", *args)
+        assert rc == 0, err
+        return {r["id"]: r for r in json.loads(out)}
+
+    both = ids("--demo")
+    assert "fe-aq" in both and "hl-med3" in both
+    assert both["hl-med3"]["layer"] == "demo" and both["fe-aq"]["layer"] == "bundled"
+    assert both["hl-med3"]["invented"] is True and both["hl-med3"]["verified"] is False
+    demo_only = ids("--demo", "--no-starter")
+    assert demo_only and all(i.startswith("hl-") for i in demo_only)
+    rc, _, err = run("library", "list", "--demo", "--no-bundled")
+    assert rc == 2 and "--demo and --no-bundled contradict" in err
+    # the root parser takes the flags too (before the command)
+    rc, out, _ = run("--demo", "library", "list", "--format", "json")
+    assert rc == 0 and "hl-med3" in {r["id"] for r in json.loads(out)}
+
+
+def test_list_marks_invented_couples_apart_from_unverified(run):
+    rc, out, err = run("library", "list", "--demo")
+    assert rc == 0, err
+    med3 = next(ln for ln in out.splitlines() if ln.startswith("hl-med3 "))
+    fe = next(ln for ln in out.splitlines() if ln.startswith("fe-aq "))
+    assert "+1.050!" in med3 and "?" not in med3  # invented: its own mark, not the unverified one
+    assert "+0.740?" in fe and "!" not in fe
+    flat = " ".join(out.split())
+    assert "! invented: made-up demo values, not measurements; never use them for real predictions (25 of" in flat
+    rc, out, _ = run("library", "show", "hl-med3", "--demo")
+    assert rc == 0 and "INVENTED" in out and "UNVERIFIED" not in out
+
+
+def test_empty_set_said_in_words(run):
+    rc, out, err = run("library", "list", "--no-bundled")
+    assert rc == 0
+    assert out.startswith("no couples loaded: searched the personal layer (") and "no such file" in out
+    rc, out, err = run("predict", "hl-med2", "hl-ru-amine", "--no-bundled")
+    assert rc == 2 and err.startswith("crossrate: no couples loaded: searched the personal layer")
+    assert "--demo" in err and "crossrate library new FILE" in err
 
 
 def test_show_fields_origin_and_shadowing(run, base_file, write_lib):

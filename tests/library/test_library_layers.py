@@ -5,7 +5,7 @@ import os
 import pytest
 from library_helpers import BASE
 
-from crossrate.errors import LibraryError
+from crossrate.errors import LibraryError, UnknownCoupleError
 from crossrate.library.layers import config_path, layer_files, load_layered
 
 ONE = """\
@@ -33,11 +33,34 @@ def _one(write_lib, name, who, E):
 def test_bundled_layer_alone():
     cs = load_layered(group=False, personal=False)
     ids = cs.ids()
-    assert "fe-aq" in ids and "hl-med3" in ids  # starter and demo
+    assert "fe-aq" in ids and "hl-med3" not in ids  # the starter; the invented demo only when asked for
     assert {c.origin.layer for c in cs} == {"bundled"}
     assert "Fc-MeCN" in cs.scales
     assert cs.file_layers and set(cs.file_layers.values()) == {"bundled"}
     assert all(len(sha) == 64 for sha in cs.file_sha256.values())
+
+
+def test_demo_layer_only_when_asked_and_each_bundled_layer_apart():
+    both = load_layered(group=False, personal=False, demo=True)
+    assert "fe-aq" in both and "hl-med3" in both
+    assert both["hl-med3"].origin.layer == "demo" and both["hl-med3"].provenance == "invented"
+    assert all(c.invented and not c.verified for c in both if c.id.startswith("hl-"))
+    assert not any(c.invented for c in both if not c.id.startswith("hl-"))
+    demo = load_layered(group=False, personal=False, demo=True, starter=False)
+    assert len(demo) and all(c.origin.layer == "demo" for c in demo)
+    assert len(load_layered(group=False, personal=False, demo=True, bundled=False)) == 0
+
+
+def test_empty_set_names_the_layers_searched(write_lib):
+    cs = load_layered(group=False, personal=False, bundled=False)
+    assert len(cs) == 0 and "every layer was left out" in cs.empty_reason()
+    empty = write_lib('[library]\nformat = 1\ntitle = "empty"\n', "empty.toml")
+    cs = load_layered(extra_paths=(str(empty),), group=False, bundled=False)
+    why = cs.empty_reason()
+    assert why.startswith("no couples loaded: searched the personal layer (") and "no such file" in why
+    assert f"the cli layer ({empty}: no couple in it)" in why
+    with pytest.raises(UnknownCoupleError, match="unknown couple 'hl-med2': no couples loaded: searched"):
+        cs["hl-med2"]
 
 
 def test_order_and_shadowing_through_all_layers(write_lib, monkeypatch):

@@ -54,6 +54,7 @@ def help_table() -> Table:
         t.add_row(q, text)
     t.add_row("", "")
     t.add_row("?", "in the table's first column: values not verified (recalled or estimated)")
+    t.add_row("!", "in the table's first column: invented values (the demo library, made up; never measurements)")
     t.add_row("Caution", CAUTION)
     t.add_row("", Text("esc or q closes this screen", style="dim"))
     return t

@@ -94,6 +94,11 @@ class WorkbenchLogic:
         # Every pane that shows a couple shows what the files now hold: the table keeps its cursor (so it
         # announces no new highlight), hence the detail, the prediction and the map are redrawn here.
         self.show_detail(table.current_id)
+        if not len(cs) and not problem:
+            self.query_one(CoupleDetail).update(f"{cs.empty_reason()}; start a file with `crossrate library new "
+                                                "FILE` and open it with --library FILE, or run with --demo for "
+                                                "the invented demo couples")
+            self.status(cs.empty_reason())
         self.recompute()
         if self.view == "map":
             self.refresh_map()
@@ -250,8 +255,10 @@ class WorkbenchLogic:
         if p is not None and self._prediction_is_current() and self.cond_problem:
             note = f"! {self.cond_problem}: shown for the last good conditions"
         current = self._prediction_is_current()
+        cs = self.couple_set
+        kinds = tuple(cs[c].provenance if cs is not None and c in cs else "" for c in (self.oxidant, self.reductant))
         self.query_one(PairBar).show(self.oxidant, self.reductant, p if current else None, self.problem,
-                                     self.cond_problem if current else "")
+                                     self.cond_problem if current else "", kinds)
         self.query_one(PredictionPanel).show(p, self.unit, note)
         self.refresh_curves()
         self.refresh_check()

@@ -23,7 +23,10 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     t = Text()
     t.append(f"{c.id}", style="bold")
     t.append(f"  {c.name}\n")
-    if not c.verified:
+    if c.invented:
+        t.append("! invented: made-up demo values, not measurements; never use them for real predictions\n",
+                 style="bold")
+    elif not c.verified:
         t.append("? not verified against the primary source (recalled or estimated)\n", style="bold")
     E_root, root = cs.E_on_root(c)
     t.append(f"E = {c.E:+.3f} V vs {c.E_scale}")
@@ -38,7 +41,7 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     fields.add_column(style="bold", no_wrap=True, min_width=15)
     fields.add_column()
     for name in COUPLE_FIELDS:
-        if name in ("name", "E", "E_scale"):
+        if name in ("name", "E", "E_scale") or (name == "invented" and not c.invented):
             continue
         v = getattr(c, name)
         if v is None or v == () or v == "":

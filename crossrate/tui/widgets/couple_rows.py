@@ -6,6 +6,8 @@ import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
+from ...library.provenance import provenance_mark
+
 if TYPE_CHECKING:
     from ...library.couple_set import CoupleSet
 
@@ -29,8 +31,6 @@ COLUMNS = (
     Column("layer", 7),
 )
 
-#: Mark shown in the first column of a couple whose values are not verified against the primary source.
-UNVERIFIED_MARK = "?"
 
 
 @dataclass(frozen=True)
@@ -57,7 +57,7 @@ def build_rows(cs: CoupleSet) -> list[CoupleRow]:
         lgk = math.log10(c.k_self) if c.k_self else None
         layer = c.origin.layer if c.origin else ""
         cells = (
-            UNVERIFIED_MARK if not c.verified else " ",
+            provenance_mark(c) or " ",
             c.id,
             c.name,
             f"{charge_text(c.charge_ox)}/{charge_text(c.charge_red)}",

@@ -3,6 +3,7 @@
 from rich.text import Text
 from textual.widgets import Static
 
+from ...library.provenance import mark_of
 from ...services.results import Prediction
 from ..units import rate_text
 
@@ -10,13 +11,17 @@ from ..units import rate_text
 class PairBar(Static):
     """Two lines: the pair, then k_obs with interval and regime (or the current problem)."""
 
-    def show(self, ox: str | None, red: str | None, p: Prediction | None, problem: str = "", stale: str = "") -> None:
-        """stale: why the conditions form gives no new prediction (p is then the last good one)."""
+    def show(self, ox: str | None, red: str | None, p: Prediction | None, problem: str = "", stale: str = "",
+             kinds: tuple[str, str] = ("", "")) -> None:
+        """stale: why the conditions form gives no new prediction (p is then the last good one); kinds: the
+        provenance word of the oxidant and the reductant ('invented' and 'unverified' are shown)."""
         t = Text()
         t.append("oxidant ", style="dim")
         t.append(ox or "(o)", style="bold")
+        _append_kind(t, kinds[0] if ox else "")
         t.append("  +  reductant ", style="dim")
         t.append(red or "(r)", style="bold")
+        _append_kind(t, kinds[1] if red else "")
         if p is not None and not problem:
             c = p.conditions
             t.append(f"   {c.temperature_K:g} K, {c.ionic_strength_M:g} M, {c.medium}", style="dim")
@@ -34,3 +39,10 @@ class PairBar(Static):
             if stale:
                 t.append(f"\n! {stale}; k_obs above is for the last good conditions", style="bold")
         self.update(t)
+
+
+def _append_kind(t: Text, kind: str) -> None:
+    """' (! invented)' or ' (? unverified)' after an id; nothing for a verified couple."""
+    mark = mark_of(kind)
+    if mark:
+        t.append(f" ({mark} {kind})", style="bold" if kind == "invented" else "")
