@@ -55,6 +55,11 @@ _LAZY = {
     "rate_curves": ("crossrate.services.electrode_kinetics", "rate_curves"),
     "ElectrodeRate": ("crossrate.services.electrode_rate", "ElectrodeRate"),
     "RateCurves": ("crossrate.services.electrode_kinetics", "RateCurves"),
+    "CvSetup": ("crossrate.services.voltammogram", "CvSetup"),
+    "simulate_voltammogram": ("crossrate.services.voltammogram", "simulate_voltammogram"),
+    "scan_rate_series": ("crossrate.services.voltammogram", "scan_rate_series"),
+    "CvTrace": ("crossrate.services.voltammogram", "CvTrace"),
+    "ScanRateSeries": ("crossrate.services.voltammogram", "ScanRateSeries"),
     # result records
     "Prediction": ("crossrate.services.results", "Prediction"),
     "PredictionTable": ("crossrate.services.results", "PredictionTable"),
@@ -93,6 +98,7 @@ __all__ = [
     "MeasuredRow", "SeriesData", "CheckReport", "PairCheck", "KSelfSolution", "PotentialSolution", "SeriesFit",
     "LambdaBreakdown",
     "predict_k0", "rate_curves", "ElectrodeRate", "RateCurves",
+    "CvSetup", "simulate_voltammogram", "scan_rate_series", "CvTrace", "ScanRateSeries",
     "CrossrateError", "Problem", "LibraryError", "UnknownCoupleError", "ConditionsError", "ScienceError",
     "ConflictError", "InputFileError",
 ]  # fmt: skip
@@ -157,3 +163,10 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
     from .services.series_fit import SeriesFit, fit_series
     from .services.solving import KSelfSolution, PotentialSolution, solve_k_self, solve_potential
     from .services.solving_several import solve_several
+    from .services.voltammogram import (
+        CvSetup,
+        CvTrace,
+        ScanRateSeries,
+        scan_rate_series,
+        simulate_voltammogram,
+    )

@@ -57,6 +57,10 @@ def register(subparsers) -> None:
     rates.add_argument("--plot", default=None, metavar="FILE", help="figure of log10 k against eta (.svg or .png)")
     rates.set_defaults(func=run_rates)
 
+    from .electrode_cv_cmd import register_cv
+
+    register_cv(sub, _add_kinetics_source)
+
 
 def _add_common(p) -> None:
     co.add_library_option(p)

@@ -63,3 +63,57 @@ def rates_lines(c, prediction=None) -> list[str]:
         out += wrap_text("no reorganization energy: Butler-Volmer only (give --lambda-el KJ_MOL for "
                          "Marcus-Hush-Chidsey)", subsequent="")
     return out
+
+
+def text_plot(x, y, width: int = 64, height: int = 15, marks: str = "*") -> list[str]:
+    """A character plot of y against x (x increasing to the right), with the y range on the left."""
+    import numpy as np
+
+    x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+    x0, x1, y0, y1 = x.min(), x.max(), y.min(), y.max()
+    if y1 <= y0:
+        y1 = y0 + 1.0
+    grid = [[" "] * width for _ in range(height)]
+    cols = np.clip(((x - x0) / (x1 - x0) * (width - 1)).round().astype(int), 0, width - 1)
+    rows = np.clip(((y1 - y) / (y1 - y0) * (height - 1)).round().astype(int), 0, height - 1)
+    zero = int(round(y1 / (y1 - y0) * (height - 1))) if y0 < 0 < y1 else None
+    if zero is not None:
+        grid[zero] = ["-"] * width
+    for r, c in zip(rows.tolist(), cols.tolist(), strict=True):
+        grid[r][c] = marks
+    label = [f"{y1:9.3g} |"] + [" " * 9 + " |"] * (height - 2) + [f"{y0:9.3g} |"]
+    out = [lab + "".join(row) for lab, row in zip(label, grid, strict=True)]
+    out.append(" " * 10 + "+" + "-" * width)
+    out.append(" " * 11 + f"{x0:<10.3g}" + " " * (width - 20) + f"{x1:>10.3g}")
+    return out
+
+
+def cv_lines(series, prediction=None) -> list[str]:
+    """Delta Ep against scan rate, the reversible limit, and a character plot of the first voltammogram
+    (series: services.voltammogram.ScanRateSeries)."""
+    s = series.setup
+    out = []
+    if prediction is not None:
+        out += wrap_text(f"{prediction.couple}: k0 = {_pow10(s.log10_k0)} cm/s (predicted from k_self, 95 % "
+                         f"[{_pow10(prediction.log10_k0_95[0])}, {_pow10(prediction.log10_k0_95[1])}])")
+    else:
+        out.append(f"k0 = {_pow10(s.log10_k0)} cm/s (given)")
+    kin = ("Butler-Volmer, alpha = " + f"{s.alpha:g}") if s.kinetics == "bv" else (
+        f"Marcus-Hush-Chidsey, lambda_el = {s.lambda_el_kJ_per_mol:.1f} kJ/mol")
+    out += wrap_text(f"{kin}; D_ox = {s.D_ox_cm2_s:.3g}, D_red = {s.D_red_cm2_s:.3g} cm^2/s; "
+                     f"{s.temperature_K:g} K; A = {s.area_cm2:g} cm^2, C = {s.conc_mM:g} mM, Ru = {s.Ru_ohm:g} ohm")
+    out.append("")
+    head = ("v / V s^-1", "psi", "dEp / mV", "Epc / V", "Epa / V", "ipc / uA", "ipa / uA")
+    out.append("".join(f"{h:>11}" for h in head))
+    out.append("-" * (11 * len(head)))
+    for t in series.traces:
+        out.append(f"{t.scan_rate_V_s:>11.3g}{t.psi:>11.3g}{t.dEp_mV:>11.1f}{t.Ep_c_V:>11.3f}{t.Ep_a_V:>11.3f}"
+                   f"{t.ip_c_uA:>11.3g}{t.ip_a_uA:>11.3g}")
+    out.append("")
+    out += wrap_text(
+        f"looks reversible (Delta Ep near 59 mV) below about {series.reversible_scan_rate_V_s:.3g} V/s "
+        "(Matsuda-Ayabe: k0/(D f v)^1/2 = 15); potentials vs E0', currents anodic-positive", subsequent="")
+    t = series.traces[0]
+    out += ["", f"voltammogram at {t.scan_rate_V_s:g} V/s (current / uA against E - E0' / V):"]
+    out += text_plot(t.E_V, t.current_uA)
+    return out

@@ -18,7 +18,8 @@ from dataclasses import asdict, dataclass
 
 import numpy as np
 
-from ..core.constants import GAS_CONSTANT, KJ
+from ..core.constants import KJ
+from ..core.diffusion import stokes_einstein_diffusion
 from ..core.electrode_rate import (
     DEFAULT_Z_EL_M_PER_S,
     electrode_collision_factor,
@@ -164,6 +165,9 @@ def predict_k0(
     )
 
 
-def thermal_energy_kJ(T_K: float) -> float:
-    """RT in kJ/mol."""
-    return GAS_CONSTANT * T_K / KJ
+def couple_diffusion_cm2_s(couple_set: CoupleSet, couple_id: str, conditions: Conditions | None = None) -> float:
+    """Diffusion coefficient of a couple's forms, cm^2/s: Stokes-Einstein D = k_B T / (6 pi eta a) with the
+    couple's radius a and the medium's viscosity at the conditions (the same for Ox and Red)."""
+    c = couple_set[couple_id]
+    rc = resolve_conditions(c, c, conditions or Conditions())
+    return float(stokes_einstein_diffusion(c.radius * 1e-10, rc.viscosity_Pa_s, rc.temperature_K)) * 1e4
