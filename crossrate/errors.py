@@ -1,6 +1,25 @@
 """crossrate's own exceptions. Nothing in the API prints or exits; the CLI maps these to exit code 2."""
 
+import re
 from dataclasses import dataclass
+
+#: Characters a terminal may act on instead of showing: C0 controls but tab and newline, DEL, C1 controls,
+#: and the bidirectional overrides/isolates that can make text display in another order than it is stored.
+_UNPRINTABLE = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f\u200e\u200f\u202a-\u202e\u2066-\u2069]")
+_UNPRINTABLE_OR_NEWLINE = re.compile("[\x00-\x1f\x7f-\x9f\u200e\u200f\u202a-\u202e\u2066-\u2069]")
+
+
+def _escape(match: re.Match) -> str:
+    c = match.group()
+    return f"\\x{ord(c):02x}" if ord(c) < 0x100 else f"\\u{ord(c):04x}"
+
+
+def printable(text: str, keep_newlines: bool = True) -> str:
+    """text with every character a terminal would act on (escape sequences, carriage return, bell, bidi
+    overrides...) written as a visible escape such as \\x1b, so text read from a file cannot change the
+    terminal. keep_newlines=False escapes newline and tab too (for one-line cells)."""
+    pattern = _UNPRINTABLE if keep_newlines else _UNPRINTABLE_OR_NEWLINE
+    return pattern.sub(_escape, text) if pattern.search(text) else text
 
 
 class CrossrateError(Exception):
@@ -25,7 +44,7 @@ class Problem:
         if self.field:
             parts.append(f"field {self.field}")
         parts.append(self.message)
-        return ": ".join(parts)
+        return printable(": ".join(parts), keep_newlines=False)
 
 
 class LibraryError(CrossrateError):
@@ -66,3 +85,8 @@ class ConflictError(CrossrateError):
 
 class InputFileError(CrossrateError):
     """A CSV or other input file (not a library) is malformed; message names file, line and column."""
+
+
+class ArgumentError(CrossrateError, TypeError):
+    """A Python API function was given an argument of the wrong type, or a couple position out of range;
+    the message names the argument and what was expected."""

@@ -35,6 +35,7 @@ def register(subparsers) -> None:
                         "inverse; > 1, e.g. 10), for a group's own CI")
     co.add_format_option(p, choices=("table", "json", "csv"))
     p.add_argument("--plot", default=None, metavar="FILE", help="measured vs predicted figure (.svg or .png)")
+    p.add_argument("--force", action="store_true", help="with --plot: replace FILE if it exists")
     p.set_defaults(func=run)
 
 
@@ -49,7 +50,7 @@ def run(args) -> int:
     if args.plot:
         from ..figures.backend import check_figure_path, pyplot
 
-        check_figure_path(args.plot)
+        check_figure_path(args.plot, args.force)
         pyplot()  # fail now, before the work, when matplotlib is missing
     rows = read_measured_csv(args.measured)
     cs = co.load_set(args)
@@ -64,7 +65,7 @@ def run(args) -> int:
     if args.plot:
         from ..figures.check_plot import plot_check
 
-        out = plot_check(report, args.plot)
+        out = plot_check(report, args.plot, replace=args.force)
         print(f"figure written to {out}", file=sys.stderr)
     if args.fail_over is not None:
         over = report.rows_over(args.fail_over)
@@ -81,7 +82,9 @@ def _with_progress(job, total):
         return job(None)
     from rich.progress import Progress
 
-    with Progress(transient=True) as bar:
+    from .terminal_output import console_for
+
+    with Progress(transient=True, console=console_for(sys.stderr)) as bar:
         task = bar.add_task("predicting", total=total)
         return job(lambda done, _total: bar.update(task, completed=done))
 
@@ -96,15 +99,17 @@ CSV_COLUMNS = (
 def _print_csv(report) -> None:
     import csv
 
+    from ..library.spreadsheet_cells import safe_row
+
     w = csv.writer(sys.stdout, lineterminator="\n")
     w.writerow(CSV_COLUMNS)
     for r in report.rows:
-        w.writerow([
+        w.writerow(safe_row([
             r.line, r.label or "", r.oxidant, r.reductant, f"{r.k_measured:.6g}", f"{r.log10_k_measured:.4f}",
             f"{r.k_measured_log10_sd:.3g}", f"{r.log10_k_pred:.4f}", f"{r.log10_k_pred_95[0]:.4f}",
             f"{r.log10_k_pred_95[1]:.4f}", f"{r.log10_ratio:+.4f}", r.position, r.verdict, r.regime,
             f"{r.log10_k_diff:.4f}", "; ".join(r.likely_cause_keys), r.oxidant_provenance, r.reductant_provenance,
-        ])
+        ]))
 
 
 SHORT_VERDICT = {"within_interval": "inside", "within_10x": "within 10x", "beyond_10x": "beyond 10x"}

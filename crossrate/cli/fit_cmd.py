@@ -31,6 +31,7 @@ def register(subparsers) -> None:
     p.add_argument("--seed", type=co.seed_value, default=0, metavar="S", help="bootstrap random seed (default 0)")
     co.add_format_option(p)
     p.add_argument("--plot", default=None, metavar="FILE", help="figure of data, fit and regions (.svg or .png)")
+    p.add_argument("--force", action="store_true", help="with --plot: replace FILE if it exists")
     p.set_defaults(func=run)
 
 
@@ -47,7 +48,7 @@ def run(args) -> int:
     if args.plot:
         from ..figures.backend import check_figure_path, pyplot
 
-        check_figure_path(args.plot)
+        check_figure_path(args.plot, args.force)
         pyplot()
     series = read_series_csv(args.series)
     diffusion = "off" if args.no_diffusion else ("fixed" if args.k_diff is not None else "fitted")
@@ -59,7 +60,7 @@ def run(args) -> int:
     if args.plot:
         from ..figures.series_plot import plot_series
 
-        out = plot_series(fit, args.plot)
+        out = plot_series(fit, args.plot, replace=args.force)
         print(f"figure written to {out}", file=sys.stderr)
     return 0
 
@@ -75,7 +76,9 @@ def _run_fit(args, series, diffusion):
         return job(None)
     from rich.progress import Progress
 
-    with Progress(transient=True) as bar:
+    from .terminal_output import console_for
+
+    with Progress(transient=True, console=console_for(sys.stderr)) as bar:
         task = bar.add_task("bootstrap", total=args.bootstrap)
         return job(lambda done, _total: bar.update(task, completed=done))
 

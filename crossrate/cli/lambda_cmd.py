@@ -77,7 +77,7 @@ def register(subparsers) -> None:
     )
     p.add_argument("couple", nargs="?", metavar="ID", help="id of a library couple")
     s = p.add_argument_group("couple not in the library")
-    s.add_argument("--radius", type=positive_float, metavar="A", help="couple radius in angstrom")
+    s.add_argument("--radius", type=positive_float, metavar="A", help="couple radius in angstrom, 1 to 30")
     s.add_argument(
         "--bonds", type=bond_spec, action="append", default=[], metavar="COUNT:DD:FOX:FRED",
         help="bond set: bonds per molecule, length change (angstrom), force constants ox/red (N/m); repeatable",
@@ -99,7 +99,7 @@ def register(subparsers) -> None:
     )
     g.add_argument(
         "--Z", type=positive_float, default=DEFAULT_Z, metavar="VALUE",
-        help=f"collision factor Z in M^-1 s^-1 (default {DEFAULT_Z:g})",
+        help=f"collision factor Z in M^-1 s^-1, 1e9 to 1e13 (default {DEFAULT_Z:g})",
     )
     add_library_option(p)
     add_format_option(p, choices=("table", "json"), default="table")

@@ -126,11 +126,23 @@ def _run_tui(args) -> int:
 
 def main(argv: list[str] | None = None) -> int:
     """Entry point of the `crossrate` console script. Returns the process exit code."""
-    from ..errors import CrossrateError
-
     argv = list(sys.argv[1:] if argv is None else argv)
     parser = build_parser(_command_of(argv))
     args = parser.parse_args(argv)
+    if args.command is None:  # the workbench owns the terminal; it escapes library text itself
+        return _run_command(args)
+    from .terminal_output import guard_terminal_streams
+
+    restore = guard_terminal_streams()
+    try:
+        return _run_command(args)
+    finally:
+        restore()
+
+
+def _run_command(args) -> int:
+    from ..errors import CrossrateError, printable
+
     try:
         if args.command is None:
             return _run_tui(args)
@@ -138,7 +150,7 @@ def main(argv: list[str] | None = None) -> int:
     except CrossrateError as exc:
         if args.debug:
             raise
-        print(f"crossrate: {exc}{demo_hint(exc, args)}", file=sys.stderr)
+        print(f"crossrate: {printable(str(exc))}{demo_hint(exc, args)}", file=sys.stderr)
         return 2
     except BrokenPipeError:
         # The reader went away (`| head`): not an error of the user's input. Point stdout at devnull so the
@@ -150,7 +162,7 @@ def main(argv: list[str] | None = None) -> int:
     except (OSError, UnicodeDecodeError) as exc:
         if args.debug:
             raise
-        print(f"crossrate: {os_error_text(exc)}", file=sys.stderr)
+        print(f"crossrate: {printable(os_error_text(exc))}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         return 130

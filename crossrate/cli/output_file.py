@@ -1,12 +1,12 @@
 """Writing a command's result to a file the user names (`--out FILE`) without ever losing what was there.
 
 The path is checked before any work is done (missing folder, a folder in place of a file, an existing file
-without --force), and the text goes through a temporary file in the same folder, so a failure midway
-leaves neither a half-written FILE nor a damaged earlier one.
+without --force), and the text is written through library.output_writer: a temporary file in the same
+folder, so a failure midway leaves neither a half-written FILE nor a damaged earlier one, and the new file
+gets the ordinary permissions of the user's umask.
 """
 
 import os
-import tempfile
 
 from ..errors import InputFileError
 
@@ -33,22 +33,13 @@ def write_out(path: str, text: str, force: bool = False, option: str = "--out", 
     force=True replaces an existing file; otherwise an existing file is refused and never touched, also
     when it appears while the text is being written.
     """
+    from ..library.output_writer import write_output
+
     check_out_path(path, force, option, can_force)
-    folder = os.path.dirname(os.path.abspath(path))
-    fd, tmp = tempfile.mkstemp(prefix=".crossrate-out-", dir=folder)
     try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as fh:
-            fh.write(text)
-            fh.flush()
-            os.fsync(fh.fileno())
-        if force:
-            os.replace(tmp, path)
-        else:
-            try:
-                os.link(tmp, path)  # fails if path appeared meanwhile: never replaces someone's file
-            except FileExistsError:
-                raise InputFileError(f"{option} {path}: file exists; expected a new file name "
-                                     "(nothing was written)") from None
-    finally:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
+        write_output(path, lambda fh: fh.write(text.encode("utf-8")), replace=force)
+    except FileExistsError:
+        raise InputFileError(f"{option} {path}: file exists; expected a new file name (nothing was written)") from None
+    except OSError as exc:
+        raise InputFileError(f"{option} {path}: could not be written ({exc.strerror or exc}); "
+                             "nothing was written") from None

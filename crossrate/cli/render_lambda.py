@@ -94,11 +94,12 @@ def plain_lambda(b, sym: dict[str, str]) -> str:
 
 
 def _rich_lambda(b, stream) -> None:
-    from rich.console import Console
     from rich.text import Text
 
+    from .terminal_output import console_for
+
     sym = symbols(stream)
-    console = Console(file=stream, highlight=False)
+    console = console_for(stream, highlight=False)
     first, *rest = wrap_line(f"Reorganization energy of {b.couple_id} ({b.name}), self-exchange Ox + Red -> Red + Ox")
     console.print(Text.assemble(("Reorganization energy of ", "bold"), (b.couple_id, "bold cyan"),
                                 first[len("Reorganization energy of ") + len(b.couple_id):]))

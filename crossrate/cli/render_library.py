@@ -89,10 +89,11 @@ def print_couple_list(couples, n_total: int, shadowed, stream=None) -> None:
         notes.append(f"{len(shadowed)} shadowed by a later layer: {shown}{more}; see `crossrate library show ID`")
     note_lines = [ln for n in notes for ln in textwrap.wrap(n, width=width, break_on_hyphens=False)]
     if use_rich(stream):
-        from rich.console import Console
         from rich.text import Text
 
-        console = Console(file=stream, highlight=False, soft_wrap=True)
+        from .terminal_output import console_for
+
+        console = console_for(stream, highlight=False, soft_wrap=True)
         console.print(Text(lines[0], style="bold"))
         for ln in lines[1:]:
             console.print(Text(ln, style="dim" if ln.startswith(NAME_INDENT) else ""))

@@ -5,6 +5,8 @@ import io
 import sys
 from contextlib import contextmanager
 
+from ..library.spreadsheet_cells import safe_row, spreadsheet_safe
+
 
 def map_csv(rate_map) -> str:
     """CSV matrix: header `oxidant\\reductant,<ids>,oxidant_provenance`, one row per oxidant, log10 k_obs
@@ -13,11 +15,11 @@ def map_csv(rate_map) -> str:
     same couples)."""
     buf = io.StringIO()
     writer = csv.writer(buf, lineterminator="\n")
-    writer.writerow(["oxidant\\reductant", *rate_map.ids, "oxidant_provenance"])
+    writer.writerow(safe_row(["oxidant\\reductant", *rate_map.ids, "oxidant_provenance"]))
     values = rate_map.log10_k_obs
     kinds = rate_map.provenance or ("",) * len(rate_map.ids)
     for i, cid in enumerate(rate_map.ids):
-        writer.writerow([cid, *("" if v != v else f"{v:.4f}" for v in values[i].tolist()), kinds[i]])
+        writer.writerow([spreadsheet_safe(cid), *("" if v != v else f"{v:.4f}" for v in values[i].tolist()), kinds[i]])
     return buf.getvalue()
 
 
@@ -30,12 +32,13 @@ def progress_bar(stream=None):
     if not (isatty and isatty()):
         yield None
         return
-    from rich.console import Console
     from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
+
+    from .terminal_output import console_for
 
     with Progress(
         TextColumn("rate map"), BarColumn(), MofNCompleteColumn(), TimeElapsedColumn(),
-        console=Console(file=stream), transient=True,
+        console=console_for(stream), transient=True,
     ) as bar:
         task = bar.add_task("rows", total=None)
 

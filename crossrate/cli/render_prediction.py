@@ -134,11 +134,12 @@ def _speaker(sym: dict[str, str]):
 
 
 def _rich_prediction(p, stream) -> None:
-    from rich.console import Console
     from rich.text import Text
 
+    from .terminal_output import console_for
+
     sym = symbols(stream)
-    console = Console(file=stream, highlight=False)
+    console = console_for(stream, highlight=False)
     console.print(Text("Cross reaction  Ox1 + Red2 -> Red1 + Ox2", style="bold"))
     ox = labelled_id(p.oxidant, p.oxidant_provenance)[len(p.oxidant):]
     red = labelled_id(p.reductant, p.reductant_provenance)[len(p.reductant):]

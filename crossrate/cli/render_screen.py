@@ -5,6 +5,7 @@ import io
 import sys
 
 from ..library.provenance import labelled_id, legend_lines, marked_id
+from ..library.spreadsheet_cells import safe_row
 from .render_common import CLOSING_CAUTION, fmt_fixed, pow10, symbols, use_rich, wrap_line
 
 CSV_COLUMNS = (
@@ -95,12 +96,13 @@ def plain_screen(result, sym) -> str:
 
 def _rich_screen(result, stream) -> None:
     from rich import box
-    from rich.console import Console
     from rich.table import Table
     from rich.text import Text
 
+    from .terminal_output import console_for
+
     sym = symbols(stream)
-    console = Console(file=stream, highlight=False)
+    console = console_for(stream, highlight=False)
     header, rows = table_rows(result, sym)
     console.print(Text(heading(result), style="bold"))
     table = Table(box=box.SIMPLE_HEAD, pad_edge=False, collapse_padding=True, padding=(0, 1))
@@ -137,12 +139,12 @@ def screen_csv(result) -> str:
     kinds = _kinds(result)
     for i, partner in enumerate(result.partner):
         lo, hi = result.log10_k_obs_95_linear[i]
-        writer.writerow([
+        writer.writerow(safe_row([
             i + 1, partner, kinds[i], t.oxidant[i], t.reductant[i], _num(t.log10_k_obs[i], 5), _num(lo, 5), _num(hi, 5),
             _num(t.log10_k_obs_sd_linear[i], 5), _num(t.dG0_kJ_per_mol[i], 4),
             _num(t.dG0_prime_kJ_per_mol[i], 4), _num(t.lambda_kJ_per_mol[i], 4), _num(t.log10_k_act[i], 5),
             _num(t.log10_k_diff[i], 5), t.regime[i], "true" if t.diffusion_controlled[i] else "false",
-        ])
+        ]))
     return buf.getvalue()
 
 

@@ -1,7 +1,6 @@
 """Lazy access to matplotlib (Agg backend) and safe writing of a figure to an .svg or .png file."""
 
 import os
-import tempfile
 from pathlib import Path
 
 from ..errors import CrossrateError
@@ -14,8 +13,9 @@ class PlottingUnavailableError(CrossrateError):
     """matplotlib, the optional plotting extra, is not installed."""
 
 
-def check_figure_path(path) -> Path:
-    """The figure path, checked before any work is done: .svg or .png, in an existing folder."""
+def check_figure_path(path, replace: bool = False) -> Path:
+    """The figure path, checked before any work is done: .svg or .png, in an existing folder, and not an
+    existing file unless replace (--force) is given."""
     p = Path(path)
     if p.suffix.lower() not in FIGURE_SUFFIXES:
         raise CrossrateError(f"--plot {p}: expected a file name ending in .svg or .png")
@@ -23,6 +23,9 @@ def check_figure_path(path) -> Path:
         raise CrossrateError(f"--plot {p}: folder {p.parent} does not exist")
     if p.exists() and p.is_dir():
         raise CrossrateError(f"--plot {p}: is a folder, expected a file name")
+    if os.path.lexists(p) and not replace:
+        raise CrossrateError(f"--plot {p}: file exists; choose another name or add --force to replace it "
+                             "(nothing was written)")
     return p
 
 
@@ -41,21 +44,21 @@ def pyplot():
     return plt
 
 
-def save_figure(fig, path) -> Path:
-    """Write the figure atomically (temporary file in the same folder, then os.replace) and close it."""
-    p = check_figure_path(path)
-    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=p.suffix, dir=p.parent)
-    os.close(fd)
+def save_figure(fig, path, replace: bool = False) -> Path:
+    """Write the figure atomically (library.output_writer: a temporary file in the same folder, the umask's
+    permissions, an existing file replaced only when replace) and close it."""
+    from ..library.output_writer import write_output
+
+    p = check_figure_path(path, replace)
     try:
-        fig.savefig(tmp, format=p.suffix.lower().lstrip("."), bbox_inches="tight", dpi=150)
-        # mkstemp makes the file private; give it the permissions an ordinary new file would get.
-        umask = os.umask(0)
-        os.umask(umask)
-        os.chmod(tmp, p.stat().st_mode & 0o777 if p.exists() else 0o666 & ~umask)
-        os.replace(tmp, p)
+        write_output(p, lambda fh: fig.savefig(fh, format=p.suffix.lower().lstrip("."), bbox_inches="tight",
+                                               dpi=150), replace=replace)
+    except FileExistsError:
+        raise CrossrateError(f"--plot {p}: file exists; choose another name or add --force to replace it "
+                             "(nothing was written)") from None
+    except OSError as exc:
+        raise CrossrateError(f"--plot {p}: could not be written ({exc.strerror or exc}); nothing was written") from None
     finally:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
         import matplotlib.pyplot as plt
 
         plt.close(fig)

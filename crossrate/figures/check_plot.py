@@ -11,7 +11,7 @@ VERDICT_STYLE = {
 }
 
 
-def plot_check(report, path, title: str | None = None):
+def plot_check(report, path, title: str | None = None, replace: bool = False):
     """Draw a CheckReport (crossrate.services.measured_check) to path (.svg or .png); returns the Path.
 
     Axes: log10 k_predicted (x, with its 95 % interval as error bars) and log10 k_measured (y, with its
@@ -48,4 +48,4 @@ def plot_check(report, path, title: str | None = None):
     ax.set_title(title or f"{s.n} cross reactions: median |log10 ratio| {s.median_abs_log10_ratio:.2f}", fontsize=10)
     ax.legend(fontsize=7, loc="upper left")
     ax.grid(True, lw=0.3, alpha=0.5)
-    return save_figure(fig, path)
+    return save_figure(fig, path, replace)

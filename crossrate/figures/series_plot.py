@@ -8,7 +8,7 @@ from .backend import pyplot, save_figure
 REGION_COLOURS = {"normal": "#e8f1f8", "activationless": "#f3f3dc", "inverted": "#f8e8e6"}
 
 
-def plot_series(fit, path, title: str | None = None):
+def plot_series(fit, path, title: str | None = None, replace: bool = False):
     """Draw a SeriesFit (crossrate.services.series_fit) to path (.svg or .png); returns the Path.
 
     x: -Delta G deg in eV; y: log10 k_obs in M^-1 s^-1. Shaded: the normal region, the activationless band
@@ -47,4 +47,4 @@ def plot_series(fit, path, title: str | None = None):
     ax.set_title(title or f"lambda = {fit.lambda_eV:.2f} eV ({fit.lambda_kJ_per_mol:.0f} kJ/mol); {verdict}",
                  fontsize=10)
     ax.legend(fontsize=7, loc="best", framealpha=0.9)
-    return save_figure(fig, path)
+    return save_figure(fig, path, replace)

@@ -1,6 +1,6 @@
 """The Couple record as stored in a library file (user units), and where it came from."""
 
-from dataclasses import dataclass, field, fields
+from dataclasses import MISSING, dataclass, field, fields
 
 
 @dataclass(frozen=True)
@@ -70,6 +70,22 @@ class Couple:
     invented: bool = False
     origin: Origin | None = field(default=None, compare=False)
 
+    def __post_init__(self):
+        # A couple made in code is held to the library's rules (LibraryError listing every problem).
+        from .couple_check import check_built_couple
+
+        check_built_couple(self)
+
+    @classmethod
+    def trusted(cls, **values) -> "Couple":
+        """A Couple from values validation.validate_couple has just checked (no second check: a 10,000-couple
+        file builds 10,000 of them). Not for values from anywhere else."""
+        obj = cls.__new__(cls)
+        d = obj.__dict__
+        d.update(_DEFAULTS)
+        d.update(values)
+        return obj
+
     @property
     def effective_E(self) -> float:
         """Potential (V, on E_scale) of the form that reacts: ground state, or excited state when E00 is given.
@@ -93,6 +109,8 @@ class Couple:
         """True when the couple gives a self-exchange rate or enough to estimate its reorganization energy."""
         return self.k_self is not None or self.lambda_total is not None or self.lambda_in is not None or bool(self.bonds)
 
+
+_DEFAULTS = {f.name: f.default for f in fields(Couple) if f.default is not MISSING}
 
 #: Field names in file order (id and origin are not fields of the TOML table).
 COUPLE_FIELDS = tuple(f.name for f in fields(Couple) if f.name not in ("id", "origin"))

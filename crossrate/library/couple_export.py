@@ -13,6 +13,7 @@ from ..core.potential_scales import ScaleRegistry, builtin_scales
 from .couple import Couple
 from .couple_edits import couple_to_values
 from .schema import FIELD_SPECS, FORMAT_VERSION
+from .spreadsheet_cells import spreadsheet_safe
 from .table_editor import format_key, format_value, render_table
 
 #: Keys of a record, in order.
@@ -58,7 +59,7 @@ def records_csv(records: list[dict]) -> str:
                 v = format_value(v) if v else ""
             elif isinstance(v, bool):
                 v = "true" if v else "false"
-            row[k] = v
+            row[k] = spreadsheet_safe(v)  # a name like =HYPERLINK(...) stays text
         w.writerow(row)
     return buf.getvalue()
 

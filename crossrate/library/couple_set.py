@@ -8,7 +8,7 @@ import numpy as np
 
 from ..core.constants import ANGSTROM, KJ
 from ..core.potential_scales import ScaleRegistry
-from ..errors import UnknownCoupleError
+from ..errors import ArgumentError, UnknownCoupleError
 from .couple import Couple, Origin
 
 
@@ -112,7 +112,12 @@ class CoupleSet:
     def __getitem__(self, couple_id: str) -> Couple:
         try:
             return self._couples[couple_id]
+        except TypeError:  # an unhashable key (a list...)
+            raise ArgumentError(f"couple id: got {type(couple_id).__name__}; expected a couple id (text)") from None
         except KeyError:
+            if not isinstance(couple_id, str):
+                raise ArgumentError(f"couple id: got {type(couple_id).__name__} {couple_id!r:.40}; expected a "
+                                    "couple id (text)") from None
             raise UnknownCoupleError(couple_id, self.suggest(couple_id), self._empty_note()) from None
 
     def _empty_note(self) -> str:
@@ -127,7 +132,11 @@ class CoupleSet:
             return np.fromiter(map(self._index.__getitem__, ids), dtype=np.intp, count=len(ids))
         except KeyError as exc:
             cid = exc.args[0]
+            if not isinstance(cid, str):
+                raise ArgumentError(f"couple id: got {type(cid).__name__} {cid!r:.40}; expected a couple id (text)") from None
             raise UnknownCoupleError(cid, self.suggest(cid), self._empty_note()) from None
+        except TypeError:
+            raise ArgumentError("couple ids: expected a list of couple ids (text)") from None
 
     def E_on_root(self, couple: Couple) -> tuple[float, str]:
         """(effective potential in V on the root scale, root scale key) for one couple."""

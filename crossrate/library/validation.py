@@ -351,7 +351,7 @@ def validate_couple(couple_id: str, raw, ctx: ValidationContext, span: TableSpan
         problems += [Problem(path, line, couple_id, n, msg) for n, msg in missing]
         problems.sort(key=lambda p: p.line or 0)
         return problems
-    return Couple(id=couple_id, origin=IndexedOrigin(path, line or 0, ctx.layer, span=span), **values)
+    return Couple.trusted(id=couple_id, origin=IndexedOrigin(path, line or 0, ctx.layer, span=span), **values)
 
 
 def _unknown_field_message(couple_id, name, value) -> str:

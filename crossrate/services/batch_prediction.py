@@ -8,6 +8,7 @@ from ..core.regime import REGIME_NAMES
 from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
+from .arguments import positions, require_conditions, require_couple_set
 from .conditions import Conditions
 from .couple_lambda import lambda_columns
 from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
@@ -18,16 +19,8 @@ from .uncertainty import DEFAULT_E_SD_V
 LN10 = float(np.log(10.0))
 
 
-def _as_index(cs: CoupleSet, ids) -> np.ndarray:
-    if isinstance(ids, np.ndarray):
-        if ids.dtype.kind in "iu":
-            return ids.astype(np.intp)
-        return cs.index_of(ids.tolist())
-    ids = ids if isinstance(ids, list | tuple) else list(ids)
-    # A list of str goes straight to the id look-up (np.asarray of 100,000 str would cost ~20 ms).
-    if ids and isinstance(ids[0], int | np.integer) and not isinstance(ids[0], bool):
-        return np.asarray(ids, dtype=np.intp)
-    return cs.index_of(ids)
+def _as_index(cs: CoupleSet, ids, name: str = "ids") -> np.ndarray:
+    return positions(cs, ids, name)
 
 
 def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None = None, uncertainty=True):
@@ -161,8 +154,10 @@ def predict_many(
     Same model as predict() (Marcus cross relation, work terms, diffusion cap); uncertainty is the
     first-order (linear) SD of log10 k_obs. Pairs that cannot be computed are NaN with a reason.
     """
-    ox = _as_index(couple_set, oxidants)
-    red = _as_index(couple_set, reductants)
+    require_couple_set(couple_set)
+    require_conditions(conditions)
+    ox = _as_index(couple_set, oxidants, "oxidants")
+    red = _as_index(couple_set, reductants, "reductants")
     if ox.shape != red.shape:
         raise ConditionsError(f"{len(ox)} oxidants but {len(red)} reductants: give equal numbers")
     res, sd, problem, bad = evaluate_pairs(couple_set, ox, red, conditions, uncertainty)

@@ -9,6 +9,9 @@ from ..errors import ConditionsError
 
 TEMPERATURE_RANGE_K = (200.0, 400.0)
 IONIC_STRENGTH_MAX_M = 5.0
+#: Collision factor Z accepted, M^-1 s^-1: about 1e11 for two small ions in solution (common practice); two
+#: decades either side cover every choice in use, and beyond them k_self would no longer mean a barrier.
+Z_RANGE = (1e9, 1e13)
 
 
 @dataclass(frozen=True)
@@ -25,17 +28,28 @@ class Conditions:
 
     def __post_init__(self):
         T = self.temperature_K
-        if not (isinstance(T, int | float) and np.isfinite(T)) or not (
+        if isinstance(T, bool) or not (isinstance(T, int | float) and np.isfinite(T)) or not (
             TEMPERATURE_RANGE_K[0] <= T <= TEMPERATURE_RANGE_K[1]
         ):
             raise ConditionsError(
                 f"temperature {T!r} K: expected a finite number from {TEMPERATURE_RANGE_K[0]:g} to {TEMPERATURE_RANGE_K[1]:g} K"
             )
         I = self.ionic_strength_M
-        if I is not None and (not np.isfinite(I) or I < 0 or I > IONIC_STRENGTH_MAX_M):
+        if I is not None and (isinstance(I, bool) or not isinstance(I, int | float) or not np.isfinite(I)
+                              or I < 0 or I > IONIC_STRENGTH_MAX_M):
             raise ConditionsError(f"ionic strength {I!r} M: expected a finite number from 0 to {IONIC_STRENGTH_MAX_M:g} M")
-        if not (np.isfinite(self.Z) and self.Z > 0):
-            raise ConditionsError(f"Z {self.Z!r}: expected a positive finite collision factor in M^-1 s^-1")
+        Z = self.Z
+        if isinstance(Z, bool) or not isinstance(Z, int | float) or not Z_RANGE[0] <= Z <= Z_RANGE[1]:
+            raise ConditionsError(f"Z {Z!r}: expected a collision factor from {Z_RANGE[0]:g} to {Z_RANGE[1]:g} "
+                                  "M^-1 s^-1 (about 1e11 usually)")
+        m = self.medium
+        if m is not None:
+            from ..core.solvents import solvent_table
+
+            known = solvent_table()
+            if not isinstance(m, str) or m not in known:
+                raise ConditionsError(f"unknown medium {m!r}; known media: {', '.join(sorted(known))} (or leave it "
+                                      "out for the couples' own)")
 
     def with_(self, **changes) -> "Conditions":
         """A copy with some fields changed (validated again)."""

@@ -19,6 +19,8 @@ from ..core.work_terms import work_term
 from ..errors import ConditionsError, ScienceError
 from ..library.couple import BondSet, Couple, Origin
 from ..library.couple_set import CoupleSet
+from ..library.schema import FIELDS_BY_NAME
+from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .conditions import Conditions
 from .couple_lambda import (
     DEFAULT_KAPPA_EL_LOG10_SD,
@@ -118,6 +120,9 @@ def lambda_breakdown(
     Temperature (K), Z (M^-1 s^-1) and ionic strength (mol/L; default the couple's own) come from conditions.
     Raises UnknownCoupleError for an unknown id, ConditionsError for an unknown medium.
     """
+    require_couple_set(couple_set)
+    require_id(couple_id, "couple_id")
+    require_conditions(conditions)
     cond = conditions or Conditions()
     c = couple_set[couple_id]
     med = medium or cond.medium or c.medium
@@ -237,9 +242,13 @@ def lambda_for_structure(
     lambda_in (kJ/mol, instead of bonds) and kappa_el. Temperature, Z and ionic strength (default 0 M)
     from conditions. Raises ScienceError for a non-physical structure, ConditionsError for an unknown medium.
     """
+    require_number(radius_A, "radius_A", "angstrom")
+    require_conditions(conditions)
     cond = conditions or Conditions()
-    if not (np.isfinite(radius_A) and radius_A > 0):
-        raise ScienceError(f"radius {radius_A!r} angstrom: expected a positive number")
+    radius_spec = FIELDS_BY_NAME["radius"]
+    if not (np.isfinite(radius_A) and radius_spec.in_range(radius_A)):
+        raise ScienceError(f"radius {radius_A!r} angstrom: expected {radius_spec.expected()} (the library's range "
+                           "for a couple's effective radius)")
     for b in bonds:
         if b.count < 1 or not (b.f_ox > 0 and b.f_red > 0) or not np.isfinite(b.delta_d):
             raise ScienceError(

@@ -15,9 +15,16 @@ from dataclasses import asdict, dataclass, field, replace
 
 import numpy as np
 
-from ..errors import ConditionsError, InputFileError, ScienceError, UnknownCoupleError
+from ..errors import (
+    ArgumentError,
+    ConditionsError,
+    InputFileError,
+    ScienceError,
+    UnknownCoupleError,
+)
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set
 from .conditions import Conditions, row_conditions
 from .likely_causes import likely_causes
 from .measured_csv import MeasuredRow
@@ -259,6 +266,10 @@ def check_measured(
         CheckReport. Raises InputFileError listing every row that names an unknown couple or cannot be
         predicted (file:line: field: message), before any result is returned.
     """
+    require_couple_set(couple_set)
+    require_conditions(conditions)
+    if not isinstance(rows, list | tuple):
+        raise ArgumentError(f"rows: got {type(rows).__name__}; expected a list of MeasuredRow (from read_measured_csv)")
     base = conditions or Conditions()
     problems = []
     for r in rows:

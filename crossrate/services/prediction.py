@@ -11,6 +11,7 @@ from ..core.solvents import get_solvent
 from ..errors import ConditionsError, ScienceError
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .conditions import Conditions
 from .prediction_warnings import pair_warnings
 from .results import Prediction, UsedConditions, WorkTerms
@@ -157,6 +158,12 @@ def predict(
     Returns:
         Prediction (kJ/mol, log10 M^-1 s^-1). Raises UnknownCoupleError, ConditionsError or ScienceError.
     """
+    require_couple_set(couple_set)
+    require_id(oxidant, "oxidant")
+    require_id(reductant, "reductant")
+    require_conditions(conditions)
+    if samples is not None:
+        require_number(samples, "samples")
     cond = conditions or Conditions()
     if samples is None:
         samples = 0

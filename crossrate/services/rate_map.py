@@ -16,6 +16,7 @@ from ..core.rate_grid import ln_k_obs_grid
 from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set
 from .conditions import Conditions
 from .progress import ProgressCallback, report
 from .results import json_safe
@@ -122,6 +123,8 @@ def rate_map(
     Returns:
         RateMap (log10(M^-1 s^-1), NaN where not computable). Raises UnknownCoupleError, ConditionsError.
     """
+    require_couple_set(couple_set)
+    require_conditions(conditions)
     cond = conditions or Conditions()
     a = couple_set.arrays
     idx = np.arange(len(couple_set), dtype=np.intp) if ids is None else couple_set.index_of(list(ids))

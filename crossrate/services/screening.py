@@ -13,6 +13,7 @@ import numpy as np
 from ..core.solvents import get_solvent
 from ..errors import ConditionsError, ScienceError
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set
 from .batch_prediction import predict_many
 from .conditions import Conditions
 from .results import PredictionTable, _Record, json_safe
@@ -132,6 +133,8 @@ def screen(
     Returns:
         ScreenResult, fastest first. Raises UnknownCoupleError, ConditionsError or ScienceError.
     """
+    require_couple_set(couple_set)
+    require_conditions(conditions)
     if role not in ROLES:
         raise ConditionsError(f"role {role!r}: expected 'oxidant' or 'reductant'")
     if min_k is not None and not (np.isfinite(min_k) and min_k > 0):

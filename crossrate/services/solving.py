@@ -18,6 +18,7 @@ from dataclasses import dataclass
 from ..core.constants import EV, FARADAY, KJ
 from ..errors import ScienceError
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .conditions import Conditions
 from .measured_check import DEFAULT_MEASURED_LOG10_SD, Z95, require_positive
 from .results import UsedConditions, _Record
@@ -138,6 +139,11 @@ def solve_k_self(
         KSelfSolution (log10 M^-1 s^-1, kJ/mol). ScienceError when the rate is at or above k_D or faster
         than any k_self allows.
     """
+    require_couple_set(couple_set)
+    require_id(unknown, "unknown")
+    require_id(partner, "partner")
+    require_number(k_measured, "k_measured", "M^-1 s^-1")
+    require_conditions(conditions)
     k_measured = _check_rate(k_measured)
     sd, defaulted = _measured_sd(k_measured_log10_sd)
     s = setup_pair(couple_set, unknown, partner, role, conditions)
@@ -292,6 +298,11 @@ def solve_potential(
     decides the direction when role is 'auto'. Returns PotentialSolution with E in V on the unknown's own
     E_scale (the library field E, ground state when the couple is an excited state's).
     """
+    require_couple_set(couple_set)
+    require_id(unknown, "unknown")
+    require_id(partner, "partner")
+    require_number(k_measured, "k_measured", "M^-1 s^-1")
+    require_conditions(conditions)
     k_measured = _check_rate(k_measured)
     sd, defaulted = _measured_sd(k_measured_log10_sd)
     s = setup_pair(couple_set, unknown, partner, role, conditions)

@@ -15,6 +15,7 @@ import numpy as np
 
 from ..errors import ConditionsError, InputFileError, ScienceError, UnknownCoupleError
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set, require_id
 from .conditions import Conditions, row_conditions
 from .measured_check import Z95
 from .measured_csv import PartnerRow
@@ -127,6 +128,9 @@ def solve_several(
     Returns:
         SeveralSolution. InputFileError lists every row that cannot be solved (file:line: message).
     """
+    require_couple_set(couple_set)
+    require_id(unknown, "unknown")
+    require_conditions(conditions)
     if kind not in ("k_self", "potential"):
         raise ScienceError(f"kind {kind!r}: expected k_self or potential")
     couple_set[unknown]  # UnknownCoupleError for the unknown itself, before any row

@@ -10,6 +10,7 @@ from rich.table import Table
 from rich.text import Text
 from textual.widgets import Static
 
+from ...errors import printable
 from ...library.couple import COUPLE_FIELDS, Couple
 
 if TYPE_CHECKING:
@@ -22,7 +23,7 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     inside their column), then the reorganization-energy breakdown."""
     t = Text()
     t.append(f"{c.id}", style="bold")
-    t.append(f"  {c.name}\n")
+    t.append(f"  {printable(c.name, keep_newlines=False)}\n")
     if c.invented:
         t.append("! invented: made-up demo values, not measurements; never use them for real predictions\n",
                  style="bold")
@@ -33,7 +34,7 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     if c.E_scale != root or c.effective_E != c.E:
         t.append(f"  (reacting form {E_root:+.3f} V on {root})")
     if c.origin is not None:
-        t.append(f"\nfrom {c.origin.path}:{c.origin.line}  (layer {c.origin.layer})", style="dim")
+        t.append(printable(f"\nfrom {c.origin.path}:{c.origin.line}  (layer {c.origin.layer})"), style="dim")
     for sh in cs.shadowed:
         if sh.couple_id == c.id:
             t.append(f"\nshadows {sh.hidden.path}:{sh.hidden.line}", style="dim")
@@ -54,7 +55,7 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
             v = "true" if v else "false"
         spec = FIELDS_BY_NAME.get(name)
         unit = f" {spec.unit}" if spec is not None and spec.unit and name != "bonds" else ""
-        fields.add_row(name, f"{v}{unit}")
+        fields.add_row(name, printable(f"{v}{unit}"))  # text from the file: never terminal controls
     parts = [t, fields]
     if lambda_lines:
         parts.append(Text("reorganization energy", style="bold"))

@@ -6,6 +6,7 @@ import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
+from ...errors import printable
 from ...library.provenance import provenance_mark
 
 if TYPE_CHECKING:
@@ -59,7 +60,7 @@ def build_rows(cs: CoupleSet) -> list[CoupleRow]:
         cells = (
             provenance_mark(c) or " ",
             c.id,
-            c.name,
+            printable(c.name, keep_newlines=False),  # text from the file: never terminal controls
             f"{charge_text(c.charge_ox)}/{charge_text(c.charge_red)}",
             f"{E_root:+.3f}",
             f"{lgk:.1f}" if lgk is not None else "-",
