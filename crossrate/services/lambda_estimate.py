@@ -261,7 +261,9 @@ def lambda_for_structure(
         raise ScienceError(f"kappa_el {kappa_el!r}: expected 0 < kappa_el <= 1")
     _solvent(medium)
     z_ox, z_red = charges if charges is not None else (0, 0)
-    couple = Couple(
+    # Checked above field by field; without charges both are 0 (no work term), which a library couple may
+    # not have, so the record is built as a trusted one.
+    couple = Couple.trusted(
         id=STRUCTURE_ID,
         name=f"couple of radius {radius_A:g} A",
         charge_ox=int(z_ox),
