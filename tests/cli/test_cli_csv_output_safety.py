@@ -68,7 +68,7 @@ def test_map_and_check_csv_neutralise_ids_and_labels(run_cli, tmp_path):
     rc, out, err = run_cli("map", "--format", "csv", "--no-bundled", "--library", str(lib), library=False)
     assert rc == 0, err
     lines = out.splitlines()
-    assert lines[0] == "oxidant\\reductant,'-evil,plain"
+    assert lines[0].startswith("oxidant\\reductant,'-evil,plain,")
     assert lines[1].startswith("'-evil,")
     measured = tmp_path / "measured.csv"
     measured.write_text("oxidant,reductant,k_measured,label\n-evil,plain,1e3,=cmd|' /C calc'!A0\n", encoding="utf-8")
