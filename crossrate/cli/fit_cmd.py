@@ -1,4 +1,5 @@
-"""`crossrate fit SERIES.csv`: fit a driving-force series for lambda, A and k_D, and test for an inverted region."""
+"""`crossrate fit SERIES.csv`: fit a driving-force series under the classical, semiclassical and
+no-inverted-region models, report lambda from the one the data support, and test for an inverted region."""
 
 import json
 import sys
@@ -7,11 +8,15 @@ from . import common_options as co
 from .help_format import CAUTION
 
 HELP = """\
-Weighted least squares on log10 k_obs of k_obs = (1/k_act + 1/k_D)^-1, k_act = A exp(-(lambda + dG0)^2 / 4 lambda RT)
-(Marcus free-energy relationship with the diffusion limit), with standard errors from the Jacobian and a
-profile-likelihood (or bootstrap) 95 % interval for lambda. Then the inverted-region test: the Marcus curve
-against a curve with no inverted region (barrier held at 0 past -dG0 = lambda), by AIC.
-CSV columns: dG0_kJ_per_mol or dG0_eV (negative = downhill), k_obs (M^-1 s^-1); optional log10_sd, label.
+Weighted least squares on log10 k under three models of the activation-controlled rate k_act: classical
+Marcus, k_act = A exp(-(lambda + dG0)^2 / 4 lambda RT); semiclassical Marcus-Levich-Jortner (lambda =
+lambda_s + lambda_v, one quantized mode of energy hbar omega, --hbar-omega, default 1500 cm^-1); and a curve
+with no inverted region (held at its top past -dG0 = lambda). A bimolecular series (column k_obs, M^-1 s^-1)
+carries the diffusion limit, k_obs = (1/k_act + 1/k_D)^-1; an intramolecular one (column k_intra, s^-1) has
+none. The model with the lowest AIC is the one reported; lambda's 95 % interval (profile likelihood or
+bootstrap) spans any model within Delta AIC < 2, and is given as a one-sided bound, or none, when the data
+do not determine lambda. The inverted-region test is made under the favoured model.
+CSV columns: dG0_kJ_per_mol or dG0_eV (negative = downhill), k_obs or k_intra; optional log10_sd, label.
 """
 
 
@@ -25,6 +30,8 @@ def register(subparsers) -> None:
     g.add_argument("--k-diff", type=co.positive_float, default=None, metavar="K",
                    help="hold the diffusion limit k_D fixed at K (M^-1 s^-1) instead of fitting it")
     g.add_argument("--no-diffusion", action="store_true", help="no diffusion limit: k_obs = k_act")
+    p.add_argument("--hbar-omega", type=co.positive_float, default=1500.0, metavar="CM-1",
+                   help="energy of the semiclassical model's quantized mode, 100-5000 cm^-1 (default 1500)")
     p.add_argument("--interval", choices=("profile", "bootstrap"), default="profile",
                    help="95 %% interval for lambda: profile likelihood (default) or parametric bootstrap")
     p.add_argument("--bootstrap", type=co.seed_value, default=200, metavar="N", help="bootstrap refits, 10 to 10000 (default 200)")
@@ -51,7 +58,7 @@ def run(args) -> int:
         check_figure_path(args.plot, args.force)
         pyplot()
     series = read_series_csv(args.series)
-    diffusion = "off" if args.no_diffusion else ("fixed" if args.k_diff is not None else "fitted")
+    diffusion = "off" if args.no_diffusion else ("fixed" if args.k_diff is not None else None)
     fit = _run_fit(args, series, diffusion)
     if args.format == "json":
         print(json.dumps(fit.to_dict(), indent=2, allow_nan=False))
@@ -70,7 +77,7 @@ def _run_fit(args, series, diffusion):
 
     def job(progress):
         return fit_series(series, args.temperature, diffusion, args.k_diff, args.interval, args.bootstrap,
-                          args.seed, progress)
+                          args.seed, progress, hbar_omega_cm1=args.hbar_omega)
 
     if args.interval != "bootstrap" or not sys.stderr.isatty():
         return job(None)
@@ -83,25 +90,30 @@ def _run_fit(args, series, diffusion):
         return job(lambda done, _total: bar.update(task, completed=done))
 
 
-def _fmt_bound(x):
-    return "open" if x is None else f"{x:.1f}"
-
-
 def _print_table(fit, path) -> None:
     from .render_common import print_lines
 
-    lo, hi = fit.lambda_95
+    unit = fit.rate_unit
     lines = [
-        f"series {path}: {fit.n} points at {fit.temperature_K:g} K; diffusion limit {fit.diffusion}; "
-        f"scatter {fit.scatter}" + (f" ({fit.log10_sd_used:.3f} in log10)" if fit.log10_sd_used else ""),
-        f"lambda = {fit.lambda_kJ_per_mol:.1f} +- {fit.lambda_se:.1f} kJ/mol ({fit.lambda_eV:.3f} eV); "
-        f"95 % [{_fmt_bound(lo)}, {_fmt_bound(hi)}] kJ/mol ({fit.interval_method})",
+        f"series {path}: {fit.n} points at {fit.temperature_K:g} K, {fit.kind} ({unit}); diffusion limit "
+        f"{fit.diffusion}; scatter {fit.scatter}" + (f" ({fit.log10_sd_used:.3f} in log10)" if fit.log10_sd_used
+                                                      else ""),
+        "models: " + fit.model_comparison,
+        fit.lambda_statement,
+    ]
+    sc = fit.model_fit("semiclassical")
+    if sc is not None:
+        lines.append(
+            f"semiclassical fit (hbar omega {fit.hbar_omega_cm1:g} cm^-1): lambda_s = {sc.lambda_s_kJ_per_mol:.1f} "
+            f"+- {sc.lambda_s_se:.1f}, lambda_v = {sc.lambda_v_kJ_per_mol:.1f} +- {sc.lambda_v_se:.1f} kJ/mol"
+            + ("" if fit.model == "semiclassical" else " (not the favoured model)"))
+    lines += [
         f"log10 A = {fit.log10_A:.2f} +- {fit.log10_A_se:.2f}" + (
             f"; log10 k_D = {fit.log10_k_diff:.2f}" + (f" +- {fit.log10_k_diff_se:.2f}"
                                                       if fit.log10_k_diff_se is not None else " (fixed)")
             if fit.log10_k_diff is not None else "; no diffusion limit"),
-        f"maximum at -Delta G deg = lambda = {fit.minus_dG0_at_max_kJ_per_mol:.1f} kJ/mol "
-        f"({fit.minus_dG0_at_max_eV:.3f} eV); plateau 10^{fit.log10_k_plateau:.2f} M^-1 s^-1",
+        f"maximum at -Delta G deg = {fit.minus_dG0_at_max_kJ_per_mol:.1f} kJ/mol "
+        f"({fit.minus_dG0_at_max_eV:.3f} eV); top 10^{fit.log10_k_plateau:.2f} {unit}",
         f"chi2 = {fit.chi2:.2f} on {fit.dof} dof",
     ]
     print_lines(lines)
@@ -131,6 +143,6 @@ def point_lines(fit) -> list[str]:
 
     head = line(POINT_HEADER)
     return [head, "-" * len(head), *(line(r) for r in rows),
-            *wrap_text("dG0 in kJ/mol; log k, fit = log10 k_obs measured and fitted (M^-1 s^-1); "
-                       "resid = log k - fit; k_D yes = diffusion-controlled (k_act > 10 k_D); past max = "
-                       "beyond -dG0 = lambda")]
+            *wrap_text(f"dG0 in kJ/mol; log k, fit = log10 k measured and fitted by the favoured model "
+                       f"({fit.rate_unit}); resid = log k - fit; k_D yes = diffusion-controlled (k_act > 10 k_D); "
+                       "past max = beyond the fitted maximum")]

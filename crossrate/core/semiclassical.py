@@ -24,7 +24,6 @@ Energies in J/mol, temperatures in K, rates as natural logs (the unit of A: M^-1
 import math
 
 import numpy as np
-from scipy.special import gammaln, ive, logsumexp
 
 from .constants import GAS_CONSTANT
 
@@ -40,14 +39,44 @@ def _ln_skellam(n, mu1, mu2, ln_mu1, ln_mu2, K):
     ln 0 given as a large negative finite number so that 0 quanta times it stays 0."""
     k = np.maximum(0, -n)[..., None] + np.arange(K)
     m = n[..., None] + k
-    t = m * ln_mu1[..., None] - gammaln(m + 1.0) + k * ln_mu2[..., None] - gammaln(k + 1.0)
-    return logsumexp(t, axis=-1) - mu1 - mu2
+    t = m * ln_mu1[..., None] - _ln_factorial(m) + k * ln_mu2[..., None] - _ln_factorial(k)
+    return _logsumexp(t, axis=-1) - mu1 - mu2
+
+
+_LN_FACTORIALS = {"table": np.zeros(1)}
+
+
+def _ln_factorial_table(top):
+    """ln m! for m = 0..top (at least), cumulated logs grown on demand and kept (no scipy needed)."""
+    table = _LN_FACTORIALS["table"]
+    if table.size <= top:
+        size = max(top + 1, 2 * table.size, 256)
+        table = np.concatenate(([0.0], np.cumsum(np.log(np.arange(1.0, float(size))))))
+        _LN_FACTORIALS["table"] = table
+    return table
+
+
+def _ln_factorial(m):
+    """ln m! for integer arrays m >= 0."""
+    m = np.maximum(np.asarray(m), 0).astype(np.int64)
+    return _ln_factorial_table(int(np.max(m, initial=0)))[m]
+
+
+def _logsumexp(t, axis):
+    """ln sum exp(t) along an axis, shifted by the maximum (scipy's version costs more per call than the
+    whole sum does here); -inf where every term is -inf."""
+    m = np.max(t, axis=axis, keepdims=True)
+    m = np.where(np.isfinite(m), m, 0.0)
+    with np.errstate(divide="ignore"):
+        return np.log(np.sum(np.exp(t - m), axis=axis)) + np.squeeze(m, axis=axis)
 
 
 def _ln_bessel_i(n, z):
     """ln I_n(z) for integer n, z > 0 (arrays): scipy's exponentially scaled ive where it does not underflow,
     else the uniform asymptotic (Debye) expansion for large order with three correction terms (Abramowitz &
     Stegun 9.7.7 with the polynomials u1-u3 of 9.3.9; from memory, checked against mpmath in the tests)."""
+    from scipy.special import ive  # only for a warm mode; importing scipy.special costs ~1 s
+
     n = np.abs(n).astype(float)
     with np.errstate(divide="ignore"):
         direct = np.log(ive(n, z)) + z
@@ -89,6 +118,73 @@ def _inner_terms(mu1, mu2):
     return K
 
 
+def _tails_ok(t, natural_left):
+    """Per row of terms t (E, W): are both omitted tails below SUM_TOLERANCE of the largest term? The rows
+    are log-concave sequences, so past an edge the terms fall at least by the edge ratio r each step and the
+    tail is at most edge * r / (1 - r). natural_left: rows whose left edge is n = 0 of a cold mode."""
+    tmax = np.max(t, axis=1)
+    ok = np.ones(t.shape[0], bool)
+    for edge, inner in ((-1, -2), (0, 1)):
+        te, ti = t[:, edge], t[:, inner]
+        with np.errstate(invalid="ignore"):
+            ln_r = te - ti
+            bound = te - tmax + ln_r - np.log(-np.expm1(np.minimum(ln_r, -1e-300)))
+        good = (te == -np.inf) | ((ln_r < 0) & (bound < math.log(SUM_TOLERANCE)))
+        if edge == 0:
+            good |= natural_left
+        ok &= good
+    return ok
+
+
+def _mlj_shared(x, ls, lv, hw, T, lnA):
+    """Fast path for one set of parameters over many Delta G deg (a fitted curve), cold mode only: one
+    window of levels for every point, the Skellam weights computed once. None when it does not apply or
+    does not converge (the general path then runs). Arguments: x 1-D array, the rest floats (J/mol, K)."""
+    RT = GAS_CONSTANT * T
+    S = lv / hw
+    nu = 1.0 / math.expm1(hw / RT)
+    mu1, mu2 = S * (nu + 1.0), S * nu
+    if math.sqrt(mu1 * mu2) >= 1.0 or x.size == 0:
+        return None
+    K = _inner_terms(np.array([mu1]), np.array([mu2]))
+    var_p, var_g = S * (2.0 * nu + 1.0), 2.0 * ls * RT / hw**2
+    xs = (float(x.min()), float(x.max()))
+    ends = [-(v + ls) / hw for v in xs]
+    if var_p > 0:
+        ends = [(S * var_g + c * var_p) / (var_p + var_g) for c in ends]
+        half = math.ceil(8.0 * math.sqrt(var_p * var_g / (var_p + var_g)) + 6.0)
+    else:
+        ends, half = [0.0, 0.0], 6
+    start = math.floor(min(ends)) - half
+    if mu2 == 0.0:
+        start = max(start, 0)
+    W = math.ceil(max(ends)) + half - start + 1
+    if W > 4000:
+        return None
+    n = np.arange(start, start + W)
+    k = np.maximum(0, -n)[:, None] + np.arange(K)
+    m = n[:, None] + k
+    fact = _ln_factorial_table(int(m.max()))
+    ln_mu1 = math.log(mu1) if mu1 > 0 else -1e300
+    ln_mu2 = math.log(mu2) if mu2 > 0 else -1e300
+    tk = m * ln_mu1 - fact[m] + k * ln_mu2 - fact[k]
+    mk = tk.max(axis=1)
+    lp = np.log(np.exp(tk - mk[:, None]).sum(axis=1)) + mk - mu1 - mu2
+    t = lp - (x[:, None] + ls + n * hw) ** 2 / (4.0 * ls * RT)
+    if not np.all(np.isfinite(t)):
+        return None
+    tmax = t.max(axis=1)
+    for edge, inner in ((-1, -2), (0, 1)):
+        if edge == 0 and mu2 == 0.0 and start == 0:
+            continue  # n = 0 of a cold mode: nothing lies to the left
+        ln_r = t[:, edge] - t[:, inner]
+        if np.any(ln_r >= 0):
+            return None
+        if np.any(t[:, edge] - tmax + ln_r - np.log(-np.expm1(ln_r)) >= math.log(SUM_TOLERANCE)):
+            return None
+    return lnA + 0.5 * math.log((ls + lv) / ls) + np.log(np.exp(t - tmax[:, None]).sum(axis=1)) + tmax
+
+
 def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J_per_mol, T_K, ln_A=0.0):
     """ln k of the semiclassical Marcus–Levich–Jortner rate (Ulstrup & Jortner 1975; Jortner 1976; from
     memory), thermally averaged over the high-frequency mode (formula in the module docstring).
@@ -107,8 +203,16 @@ def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J
         ln k, same unit as A, shape of the broadcast inputs. The sum over n is converged to a relative
         error below SUM_TOLERANCE (1e-13); no overflow for large S or large driving force (log space).
     """
+    params = (lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J_per_mol, T_K, ln_A)
+    if all(np.ndim(a) == 0 for a in params):
+        ls, lv, hw, T, lnA = (float(a) for a in params)
+        if ls > 0 and lv >= 0 and hw > 0 and T > 0:
+            x = np.asarray(dG0_J_per_mol, dtype=float)
+            fast = _mlj_shared(x.reshape(-1), ls, lv, hw, T, lnA)
+            if fast is not None:
+                return fast.reshape(x.shape)
     x, ls, lv, hw, T, lnA = np.broadcast_arrays(*(np.asarray(a, dtype=float) for a in (
-        dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J_per_mol, T_K, ln_A)))
+        dG0_J_per_mol, *params)))
     shape = x.shape
     x, ls, lv, hw, T, lnA = (a.reshape(-1) for a in (x, ls, lv, hw, T, lnA))
     if np.any(~(ls > 0)) or np.any(~(lv >= 0)) or np.any(~(hw > 0)) or np.any(~(T > 0)):
@@ -134,7 +238,6 @@ def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J
     centre = np.rint(centre).astype(np.int64)
     half = np.ceil(8.0 * width + 6.0).astype(np.int64)
     cold = mu2 == 0.0  # no thermal quanta: P_n = 0 for n < 0
-    ln_tol = math.log(SUM_TOLERANCE)
     lead = 0.5 * (np.log(ls + lv) - np.log(ls))
     out = np.empty_like(x)
     todo = np.arange(x.size)
@@ -148,23 +251,13 @@ def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J
         c = todo[:, None]
         if hot:
             lp = np.where(mu2[c] > 0, _ln_skellam_bessel(n, mu1[c], np.maximum(mu2[c], 1e-300)),
-                          np.where(n >= 0, n * ln_mu1[c] - gammaln(n + 1.0) - mu1[c], -np.inf))
+                          np.where(n >= 0, n * ln_mu1[c] - _ln_factorial(n) - mu1[c], -np.inf))
         else:
             lp = _ln_skellam(n, mu1[c], mu2[c], ln_mu1[c], ln_mu2[c], K)
         g = -(x[c] + ls[c] + n * hw[c]) ** 2 / (4.0 * ls[c] * RT[c])
         t = lp + g
-        tmax = np.max(t, axis=1)
-        # Tail bounds on both sides (log-concave sequence: past the edge the terms fall at least as fast).
-        ok = np.ones(todo.size, bool)
-        for edge, inner in ((-1, -2), (0, 1)):
-            te, ti = t[:, edge], t[:, inner]
-            natural = (edge == 0) & cold[todo] & (start == 0)
-            with np.errstate(invalid="ignore"):
-                ln_r = te - ti
-                bound = te - tmax + ln_r - np.log(-np.expm1(np.minimum(ln_r, -1e-300)))
-            good = natural | (te == -np.inf) | ((ln_r < 0) & (bound < ln_tol))
-            ok &= good
-        total = logsumexp(t, axis=1)
+        ok = _tails_ok(t, cold[todo] & (start == 0))
+        total = _logsumexp(t, axis=1)
         done = todo[ok]
         out[done] = total[ok]
         bad = todo[~ok]

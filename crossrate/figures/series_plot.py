@@ -1,4 +1,4 @@
-"""A fitted driving-force series: data, the Marcus fit, the no-inverted-region fit and the regions."""
+"""A fitted driving-force series: data, the classical, semiclassical and no-inverted-region fits and the regions."""
 
 import numpy as np
 
@@ -11,14 +11,15 @@ REGION_COLOURS = {"normal": "#e8f1f8", "activationless": "#f3f3dc", "inverted": 
 def plot_series(fit, path, title: str | None = None, replace: bool = False):
     """Draw a SeriesFit (crossrate.services.series_fit) to path (.svg or .png); returns the Path.
 
-    x: -Delta G deg in eV; y: log10 k_obs in M^-1 s^-1. Shaded: the normal region, the activationless band
-    around -Delta G deg = lambda and the inverted region, from the fitted lambda.
+    x: -Delta G deg in eV; y: log10 k (the series' unit). Every fitted model's curve, the favoured one drawn
+    thick. Shaded: the normal region, the activationless band around the favoured model's maximum and the
+    inverted region.
     """
     plt = pyplot()
     xs = np.array([-p.dG0_kJ_per_mol * KJ / EV for p in fit.points])
     ys = np.array([p.log10_k_obs for p in fit.points])
     es = np.array([1.96 * p.log10_sd for p in fit.points])
-    lam = fit.lambda_eV
+    lam = fit.minus_dG0_at_max_eV
     span = max(xs.max(), 1.6 * lam) - min(xs.min(), 0.0)
     x0 = min(xs.min(), 0.0) - 0.1 * span
     x1 = max(xs.max(), 1.6 * lam) + 0.1 * span
@@ -32,9 +33,12 @@ def plot_series(fit, path, title: str | None = None, replace: bool = False):
     top = fit.log10_k_plateau
     ax.text(max(x0, lam - band) - 0.02 * span, top + 0.3, "normal", ha="right", fontsize=8, color="#2b6f9e")
     ax.text(lam + band + 0.02 * span, top + 0.3, "inverted", ha="left", fontsize=8, color="#b0342c")
-    ax.plot(grid, fit.curve_log10_k(-grid * EV), color="#1f4e79", lw=1.6, label="Marcus fit")
-    ax.plot(grid, fit.curve_log10_k(-grid * EV, no_inverted=True), color="#7f7f7f", lw=1.0, ls="--",
-            label="no inverted region")
+    styles = {"classical": ("#1f4e79", "-"), "semiclassical": ("#8a3b9e", "-."), "no_inverted": ("#7f7f7f", "--")}
+    for m in fit.models:
+        colour, ls = styles[m.model]
+        favoured = m.model == fit.model
+        ax.plot(grid, fit.curve_log10_k(-grid * EV, model=m.model), color=colour, ls=ls,
+                lw=1.8 if favoured else 1.0, label=m.title + (" (favoured)" if favoured else ""))
     if fit.log10_k_diff is not None:
         ax.axhline(fit.log10_k_diff, color="#999999", lw=0.8, ls=":", label="k$_D$")
     ax.axvline(lam, color="#444444", lw=0.8)
@@ -42,9 +46,10 @@ def plot_series(fit, path, title: str | None = None, replace: bool = False):
     ax.set_ylim(min(ys.min() - 0.5, top - 4.0), max(top, ys.max()) + 1.0)
     ax.set_xlim(x0, x1)
     ax.set_xlabel(r"$-\Delta G^\circ$ / eV")
-    ax.set_ylabel("log10 k$_{obs}$ / M$^{-1}$ s$^{-1}$")
+    ax.set_ylabel("log10 k / " + fit.rate_unit.replace("M^-1", "M$^{-1}$").replace("s^-1", "s$^{-1}$"))
     verdict = "inverted region supported" if fit.inverted_region_supported else "inverted region not supported"
-    ax.set_title(title or f"lambda = {fit.lambda_eV:.2f} eV ({fit.lambda_kJ_per_mol:.0f} kJ/mol); {verdict}",
-                 fontsize=10)
+    lam_text = (f"lambda = {fit.lambda_eV:.2f} eV ({fit.lambda_kJ_per_mol:.0f} kJ/mol)" if fit.lambda_identified
+                else "lambda not determined")
+    ax.set_title(title or f"{lam_text}, {fit.model}; {verdict}", fontsize=10)
     ax.legend(fontsize=7, loc="best", framealpha=0.9)
     return save_figure(fig, path, replace)

@@ -12,7 +12,8 @@ Columns (units):
   optional k_measured_log10_sd, role (oxidant|reductant|auto: the unknown's role), temperature,
   ionic_strength, medium.
 * driving-force series (`crossrate fit`): dG0_kJ_per_mol or dG0_eV (standard free energy of each step,
-  negative = downhill), k_obs (M^-1 s^-1); optional log10_sd (log10 units).
+  negative = downhill), and either k_obs (a bimolecular series, M^-1 s^-1, with a diffusion limit) or
+  k_intra (an intramolecular series, s^-1, no diffusion limit); optional log10_sd (log10 units).
 Every kind also accepts free-text columns label, note and source.
 """
 
@@ -99,13 +100,14 @@ def _locate(path, line, col, name):
     return f"{path}:{line}:{col}: field {name}"
 
 
-def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) -> list[CsvRow]:
+def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = (),
+               also_one_of: tuple[str, ...] = ()) -> list[CsvRow]:
     """Read and check a CSV file against column rules. InputFileError lists every problem found.
 
     Args:
         path: file to read (UTF-8, a byte-order mark is allowed).
         columns: the column rules; columns not listed (and not label/note/source) are refused.
-        one_of: names of which exactly one must be present in the header.
+        one_of: names of which exactly one must be present in the header; also_one_of: a second such group.
 
     Returns:
         the data rows in file order.
@@ -131,6 +133,8 @@ def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) 
         if header is None:
             header, header_line = cells, lineno
             problems.extend(_check_header(p, lineno, header, rules, one_of))
+            if not problems and also_one_of:
+                problems.extend(_check_header(p, lineno, header, rules, also_one_of))
             if problems:
                 break
             continue
@@ -160,7 +164,7 @@ def read_table(path, columns: tuple[Column, ...], one_of: tuple[str, ...] = ()) 
         if len(problems) >= MAX_PROBLEMS:
             break
     if header is None and not problems:
-        wanted = ([" or ".join(one_of)] if one_of else []) + [c.name for c in columns if c.required]
+        wanted = ([" or ".join(g) for g in (one_of, also_one_of) if g]) + [c.name for c in columns if c.required]
         problems.append(f"{p}: no header line (the file is empty or holds only comments); expected a header "
                         f"with the columns {', '.join(wanted)}, then one line per data row")
     elif header is not None and not rows and not problems:
@@ -218,7 +222,8 @@ PARTNER_COLUMNS = (
 SERIES_COLUMNS = (
     Column("dG0_kJ_per_mol", energy_kJ),
     Column("dG0_eV", energy_eV),
-    Column("k_obs", positive_rate, True),
+    Column("k_obs", positive_rate),
+    Column("k_intra", positive_rate),
     Column("log10_sd", log10_sd),
 )
 
@@ -258,8 +263,8 @@ class PartnerRow:
 
 @dataclass(frozen=True)
 class SeriesData:
-    """A driving-force series: Delta G deg (J/mol), k_obs (M^-1 s^-1), log10 SD per point (NaN = not given),
-    file lines and labels of the points."""
+    """A driving-force series: Delta G deg (J/mol), the rates k_obs (M^-1 s^-1 for kind 'bimolecular', s^-1
+    for kind 'unimolecular'), log10 SD per point (NaN = not given), file lines and labels of the points."""
 
     path: str
     dG0_J_per_mol: np.ndarray
@@ -267,6 +272,7 @@ class SeriesData:
     log10_sd: np.ndarray
     lines: tuple[int, ...]
     labels: tuple[str, ...]
+    kind: str = "bimolecular"
 
     @property
     def has_sd(self) -> bool:
@@ -313,21 +319,24 @@ def read_partner_csv(path) -> list[PartnerRow]:
 
 def read_series_csv(path) -> SeriesData:
     """A driving-force series file; Delta G deg converted to J/mol. InputFileError on bad input."""
-    rows = read_table(path, SERIES_COLUMNS, one_of=("dG0_kJ_per_mol", "dG0_eV"))
+    rows = read_table(path, SERIES_COLUMNS, one_of=("dG0_kJ_per_mol", "dG0_eV"), also_one_of=("k_obs", "k_intra"))
+    rate = "k_intra" if "k_intra" in rows[0].values else "k_obs"
     in_ev = "dG0_eV" in rows[0].values
     key, unit = ("dG0_eV", EV) if in_ev else ("dG0_kJ_per_mol", KJ)
-    missing = [r.line for r in rows if r.values.get(key) is None]
-    if missing:
-        raise InputFileError(
-            f"{path}:{missing[0]}: field {key}: empty, expected the standard free energy of the step"
-            + (f" (also lines {', '.join(map(str, missing[1:6]))})" if len(missing) > 1 else "")
-        )
+    for col, what in ((key, "the standard free energy of the step"), (rate, "a rate constant")):
+        missing = [r.line for r in rows if r.values.get(col) is None]
+        if missing:
+            raise InputFileError(
+                f"{path}:{missing[0]}: field {col}: empty, expected {what}"
+                + (f" (also lines {', '.join(map(str, missing[1:6]))})" if len(missing) > 1 else "")
+            )
     sd = [r.values.get("log10_sd") for r in rows]
     return SeriesData(
         path=str(path),
         dG0_J_per_mol=np.array([r.values[key] for r in rows], dtype=float) * unit,
-        k_obs=np.array([r.values["k_obs"] for r in rows], dtype=float),
+        k_obs=np.array([r.values[rate] for r in rows], dtype=float),
         log10_sd=np.array([np.nan if s is None else s for s in sd], dtype=float),
         lines=tuple(r.line for r in rows),
         labels=tuple(r.values.get("label") or "" for r in rows),
+        kind="unimolecular" if rate == "k_intra" else "bimolecular",
     )

@@ -1,20 +1,25 @@
-"""Fitting a driving-force series (one couple, many partners) for lambda, A and k_D, and testing for an
-inverted region.
+"""Fitting a driving-force series (one couple, many partners, or one molecule across a family) under three
+models, choosing the one the data support, and testing for an inverted region.
 
-Model (Marcus quadratic free-energy relationship with the diffusion limit, crossrate.core.driving_force_series):
-    k_obs = (1/k_act + 1/k_D)^-1,   k_act = A exp(-(lambda + Delta G deg)^2 / (4 lambda RT)).
-Weighted least squares on log10 k_obs (scipy.optimize.least_squares, several starts), standard errors from
-the Jacobian, and a profile-likelihood (default) or parametric-bootstrap 95 % interval for lambda.
+Models (crossrate.services.series_models): classical Marcus (lambda, A), semiclassical Marcus–Levich–Jortner
+(lambda = lambda_s + lambda_v, with a quantized mode of given hbar omega, and A) and a curve with no inverted
+region (the classical curve held at its top past -Delta G deg = lambda). A bimolecular series (k_obs,
+M^-1 s^-1) carries the diffusion limit, 1/k_obs = 1/k_act + 1/k_D; an intramolecular one (k_intra, s^-1) has
+none, its electronic coupling sits in A. Weighted least squares on log10 k (scipy.optimize.least_squares,
+several starts), standard errors from the Jacobian, profile-likelihood (default) or bootstrap 95 % intervals.
 
-Scatter: with a log10_sd column the weights are 1/sd^2 and the SDs are taken as known; without one, the
-scatter is estimated from the residuals (RSS/dof) but not below MIN_LOG10_SD, so a fit through a few
-perfect points does not claim false precision.
+Scatter: with a log10_sd column the SDs are taken as known; without one, it is estimated from the residuals
+of the best-fitting model (RSS/dof) but not below MIN_LOG10_SD.
 
-Inverted-region test: the same data are fitted with a curve that has no inverted region (the barrier held
-at 0 past -Delta G deg = lambda, so k_act rises through the normal region and levels off at A; same three
-parameters). With equal parameter counts, Delta AIC = chi2(no inverted) - chi2(Marcus). The inverted region
-is called supported when Delta AIC >= 2 ln 20 (the no-inverted model at most 1/20 as likely) AND at least
-MIN_INVERTED_POINTS points lie past the fitted maximum and sit more than 2 SD below the plateau.
+Which model: the lowest AIC = chi2/s^2 + 2p (Akaike; Akaike weights reported). The reported lambda comes
+from that model; where another model is within Delta AIC < 2 (the data cannot tell them apart), the reported
+interval spans both models' intervals. When the interval stays open within 1-2000 kJ/mol, lambda is called
+not determined and only the closed side is given as a one-sided bound.
+
+Inverted-region test, made under the favoured model: it is supported when the favoured model has an inverted
+region (classical or semiclassical), beats the no-inverted-region curve by Delta AIC >= 2 ln 20 (that curve
+at most 1/20 as likely), and at least MIN_INVERTED_POINTS points lie past its maximum and more than 2 SD
+below its plateau.
 """
 
 import math
@@ -24,30 +29,32 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..core.constants import EV, KJ, STANDARD_TEMPERATURE
-from ..core.driving_force_series import marcus_ln_k_act, plateau_ln_k_act, series_ln_k_obs
 from ..core.regime import REGIME_NAMES, classify_regime, diffusion_controlled
 from ..errors import ScienceError
 from .measured_csv import SeriesData
 from .results import _Record
-from .series_evidence import inverted_region_evidence
+from .series_evidence import inverted_region_evidence, lambda_statement, model_comparison
+from .series_intervals import best_fit, bootstrap_interval, covariance, profile_interval
+from .series_models import LAMBDA_BOUNDS_KJ, LN10, MODEL_KEYS, MODEL_TITLES, Problem, SeriesModel
 
-LN10 = math.log(10.0)
-#: Floor on the estimated scatter of log10 k_obs when the file gives no SDs (+-12 %; common practice).
+#: Floor on the estimated scatter of log10 k when the file gives no SDs (+-12 %; common practice).
 MIN_LOG10_SD = 0.05
-#: chi-square(1 dof) 95 % point for the profile-likelihood interval (scipy.stats.chi2.ppf(0.95, 1)).
-CHI2_95_1DOF = 3.841458820694124
 #: Delta AIC at and above which the no-inverted-region model is called unsupported: 2 ln 20.
 AIC_THRESHOLD = 2.0 * math.log(20.0)
+#: Delta AIC below which two models are taken as equally supported (Burnham & Anderson's rule of thumb;
+#: from memory): the reported interval then spans both.
+AIC_TIE = 2.0
 #: Points past the maximum, below the plateau, needed before an inverted region is called supported.
 MIN_INVERTED_POINTS = 2
-LAMBDA_BOUNDS_KJ = (1.0, 2000.0)
-LOG10_A_BOUNDS = (-10.0, 20.0)
-LOG10_KD_BOUNDS = (-5.0, 14.0)
+#: Energy of the quantized mode when none is given: 1500 cm^-1, a C=C/C=O skeletal stretch (common practice).
+DEFAULT_HBAR_OMEGA_CM1 = 1500.0
+#: J/mol per cm^-1: h c (100 cm/m) N_A (exact SI values).
+J_PER_MOL_PER_CM1 = 6.62607015e-34 * 299792458.0 * 100.0 * 6.02214076e23
 
 
 @dataclass(frozen=True)
 class SeriesPoint(_Record):
-    """One point of the series with its fit: energies kJ/mol, rates log10 M^-1 s^-1, residual in log10."""
+    """One point with the favoured model's fit: energies kJ/mol, rates log10 (unit of the series)."""
 
     line: int | None
     label: str
@@ -63,19 +70,57 @@ class SeriesPoint(_Record):
 
 
 @dataclass(frozen=True)
-class SeriesFit(_Record):
-    """Result of a series fit. lambda in kJ/mol (and eV), A and k_D as log10 M^-1 s^-1; *_se standard errors
-    from the Jacobian; lambda_95 (low, high), a bound None when the interval is open within the search range.
-    diffusion: 'fitted', 'fixed' or 'off'. delta_aic = AIC(no inverted region) - AIC(Marcus)."""
+class ModelFit(_Record):
+    """One model fitted to the series. lambda (total) kJ/mol with its SE and 95 % interval (a side None
+    when open); for the semiclassical model lambda_s and lambda_v (kJ/mol) with Jacobian SEs; log10 A and
+    log10 k_D in the series' unit; AIC, its difference from the best and the Akaike weight."""
 
+    model: str
+    title: str
+    n_params: int
+    lambda_kJ_per_mol: float
+    lambda_se: float
+    lambda_95: tuple[float | None, float | None] | None
+    interval_method: str
+    lambda_s_kJ_per_mol: float | None
+    lambda_s_se: float | None
+    lambda_v_kJ_per_mol: float | None
+    lambda_v_se: float | None
+    log10_A: float
+    log10_A_se: float
+    log10_k_diff: float | None
+    log10_k_diff_se: float | None
+    minus_dG0_at_max_kJ_per_mol: float
+    chi2: float
+    aic: float
+    delta_aic: float
+    weight: float
+    theta: tuple[float, ...]
+
+
+@dataclass(frozen=True)
+class SeriesFit(_Record):
+    """Result of a series fit. kind 'bimolecular' (k in M^-1 s^-1) or 'unimolecular' (s^-1); model: the
+    favoured model; lambda_* from it (kJ/mol, eV), lambda_95 the reported interval (see the module
+    docstring) and lambda_identified False when it is open; delta_aic = AIC(no inverted region) - AIC(the
+    model with an inverted region used in the test); models: every model fitted."""
+
+    kind: str
+    rate_unit: str
     n: int
     temperature_K: float
     diffusion: str
+    hbar_omega_cm1: float
+    model: str
     lambda_kJ_per_mol: float
     lambda_se: float
     lambda_eV: float
     lambda_95: tuple[float | None, float | None]
+    lambda_identified: bool
+    lambda_statement: str
     interval_method: str
+    lambda_s_kJ_per_mol: float | None
+    lambda_v_kJ_per_mol: float | None
     log10_A: float
     log10_A_se: float
     log10_k_diff: float | None
@@ -88,173 +133,107 @@ class SeriesFit(_Record):
     scatter: str
     log10_sd_used: float | None
     delta_aic: float
-    no_inverted_fit: dict
+    model_comparison: str
     inverted_region_supported: bool
     evidence: str
+    models: tuple[ModelFit, ...]
     points: tuple[SeriesPoint, ...]
     warnings: tuple[str, ...] = field(default=())
 
-    def curve_log10_k(self, dG0_J_per_mol, no_inverted: bool = False):
-        """log10 k_obs of the fitted curve (or of the no-inverted-region fit) at Delta G deg values (J/mol)."""
-        if no_inverted:
-            q = self.no_inverted_fit
-            lam, la, lkd, fn = q["lambda_kJ_per_mol"], q["log10_A"], q["log10_k_diff"], plateau_ln_k_act
-        else:
-            lam, la, lkd, fn = self.lambda_kJ_per_mol, self.log10_A, self.log10_k_diff, marcus_ln_k_act
-        ln_act = fn(np.asarray(dG0_J_per_mol, dtype=float), lam * KJ, la * LN10, self.temperature_K)
-        return series_ln_k_obs(ln_act, None if lkd is None else lkd * LN10) / LN10
+    def model_fit(self, key: str) -> ModelFit | None:
+        return next((m for m in self.models if m.model == key), None)
+
+    @property
+    def no_inverted_fit(self) -> ModelFit | None:
+        return self.model_fit("no_inverted")
+
+    def curve_log10_k(self, dG0_J_per_mol, model: str | None = None, no_inverted: bool = False):
+        """log10 k of a fitted model's curve (default: the favoured one) at Delta G deg values (J/mol)."""
+        key = "no_inverted" if no_inverted else (model or self.model)
+        m = self.model_fit(key)
+        hw = self.hbar_omega_cm1 * J_PER_MOL_PER_CM1
+        prob = Problem(SeriesModel(key, self.temperature_K, hw), None, None, None,
+                       "fitted" if self.diffusion == "fitted" else "fixed", m.log10_k_diff)
+        return prob.predict(np.asarray(m.theta), np.asarray(dG0_J_per_mol, dtype=float))
 
 
-class _Problem:
-    """The least-squares problem: data, weights, which parameters are free, and the model to use."""
-
-    def __init__(self, x, y, sigma, T, diffusion, log10_kd_fixed, model):
-        self.x, self.y, self.sigma, self.T = x, y, sigma, T
-        self.diffusion, self.kd_fixed, self.model = diffusion, log10_kd_fixed, model
-
-    def predict(self, theta):
-        lam, la = theta[0], theta[1]
-        lkd = theta[2] if self.diffusion == "fitted" else self.kd_fixed
-        ln_act = self.model(self.x, lam * KJ, la * LN10, self.T)
-        return series_ln_k_obs(ln_act, None if lkd is None else lkd * LN10) / LN10
-
-    def residuals(self, theta):
-        return (self.y - self.predict(theta)) / self.sigma
-
-    def bounds(self):
-        lo = [LAMBDA_BOUNDS_KJ[0], LOG10_A_BOUNDS[0]]
-        hi = [LAMBDA_BOUNDS_KJ[1], LOG10_A_BOUNDS[1]]
-        if self.diffusion == "fitted":
-            lo.append(LOG10_KD_BOUNDS[0])
-            hi.append(LOG10_KD_BOUNDS[1])
-        return np.array(lo), np.array(hi)
+def _check_options(series, diffusion, k_diff, interval, hbar_omega_cm1):
+    kind = getattr(series, "kind", "bimolecular")
+    if diffusion is None:
+        diffusion = "off" if kind == "unimolecular" else "fitted"
+    if diffusion not in ("fitted", "fixed", "off"):
+        raise ScienceError(f"diffusion {diffusion!r}: expected fitted, fixed or off")
+    if kind == "unimolecular" and diffusion != "off":
+        raise ScienceError(f"{series.path}: an intramolecular series (column k_intra, s^-1) has no diffusion "
+                           "limit; drop --k-diff")
+    if diffusion == "fixed" and not (k_diff is not None and math.isfinite(k_diff) and k_diff > 0):
+        raise ScienceError("a fixed diffusion limit needs k_D > 0 in M^-1 s^-1 (--k-diff K)")
+    if interval not in ("profile", "bootstrap"):
+        raise ScienceError(f"interval {interval!r}: expected profile or bootstrap")
+    if not (math.isfinite(hbar_omega_cm1) and 100.0 <= hbar_omega_cm1 <= 5000.0):
+        raise ScienceError(f"hbar omega {hbar_omega_cm1:g} cm^-1: expected 100 to 5000 cm^-1")
+    return kind, diffusion
 
 
-def _least_squares():
-    from scipy.optimize import least_squares  # only when a fit actually runs
-
-    return least_squares
-
-
-def _fit(prob: _Problem, starts):
-    """Best least-squares solution over several starting points (fixed-lambda-free fit)."""
-    ls = _least_squares()
-    lo, hi = prob.bounds()
-    best = None
-    for th0 in starts:
-        th0 = np.clip(np.asarray(th0, dtype=float), lo + 1e-9, hi - 1e-9)
-        r = ls(prob.residuals, th0, bounds=(lo, hi), x_scale="jac", xtol=1e-12, ftol=1e-12, gtol=1e-12,
-               max_nfev=2000)
-        if best is None or r.cost < best.cost:
-            best = r
-    return best
-
-
-def _starts(prob: _Problem):
-    y = prob.y
-    out = []
-    for lam in np.geomspace(10.0, 400.0, 7):
-        th = [lam, float(y.max()) + 0.5]
-        if prob.diffusion == "fitted":
-            th.append(float(y.max()) + 0.3)
-        out.append(th)
-    return out
-
-
-def _profile(prob: _Problem, theta_hat, s2):
-    """chi2(lambda) / s2 minimized over the other parameters, as a function of lambda (kJ/mol)."""
-    ls = _least_squares()
-    lo, hi = prob.bounds()
-    state = {"rest": np.asarray(theta_hat[1:], dtype=float)}
-
-    def value(lam):
-        def res(rest):
-            return prob.residuals(np.concatenate(([lam], rest)))
-
-        r = ls(res, np.clip(state["rest"], lo[1:] + 1e-9, hi[1:] - 1e-9), bounds=(lo[1:], hi[1:]),
-               x_scale="jac", xtol=1e-12, ftol=1e-12, max_nfev=1000)
-        state["rest"] = r.x
-        return 2.0 * r.cost / s2
-
-    return value
-
-
-def _profile_interval(prob, theta_hat, s2, chi2_min):
-    from scipy.optimize import brentq
-
-    lam_hat = float(theta_hat[0])
-    out = []
-    for direction in (-1.0, 1.0):
-        prof = _profile(prob, theta_hat, s2)
-        prev, lam = lam_hat, lam_hat
-        bound = None
-        for _ in range(80):
-            lam = lam * (1.08 ** direction)
-            if not LAMBDA_BOUNDS_KJ[0] <= lam <= LAMBDA_BOUNDS_KJ[1]:
-                break
-            if prof(lam) - chi2_min > CHI2_95_1DOF:
-                def g(v, prof=prof):
-                    return prof(v) - chi2_min - CHI2_95_1DOF
-
-                bound = brentq(g, min(prev, lam), max(prev, lam), xtol=1e-6 * lam_hat)
-                break
-            prev = lam
-        out.append(bound)
-    return out[0], out[1]
-
-
-def _bootstrap_interval(prob, theta_hat, sigma_used, n_boot, seed, progress):
-    ls = _least_squares()
-    lo, hi = prob.bounds()
-    rng = np.random.default_rng(seed)
-    m_hat = prob.predict(theta_hat)
-    lams = []
-    y0 = prob.y
-    for k in range(n_boot):
-        prob.y = m_hat + sigma_used * rng.standard_normal(len(m_hat))
-        r = ls(prob.residuals, np.clip(theta_hat, lo + 1e-9, hi - 1e-9), bounds=(lo, hi), x_scale="jac",
-               xtol=1e-10, ftol=1e-10, max_nfev=1000)
-        lams.append(r.x[0])
-        if progress is not None:
-            progress(k + 1, n_boot)
-    prob.y = y0
-    q = np.percentile(lams, [2.5, 97.5])
-    return float(q[0]), float(q[1])
+def _model_fit(key, prob, res, s2, aic, best_aic, weight, lam95, method):
+    cov = covariance(res, s2)
+    se = np.sqrt(np.clip(np.diag(cov), 0.0, None))
+    core, lkd = prob.split(res.x)
+    ls = lv = ls_se = lv_se = None
+    if key == "semiclassical":
+        lam, phi = float(res.x[0]), float(res.x[1])
+        ls, lv = lam * (1.0 - phi), lam * phi
+        # Delta method: d(lambda_s) = (1 - phi) d lambda - lambda d phi; d(lambda_v) = phi d lambda + lambda d phi.
+        g_s, g_v = np.array([1.0 - phi, -lam]), np.array([phi, lam])
+        c2 = cov[:2, :2]
+        ls_se, lv_se = float(np.sqrt(max(g_s @ c2 @ g_s, 0.0))), float(np.sqrt(max(g_v @ c2 @ g_v, 0.0)))
+    return ModelFit(
+        model=key, title=MODEL_TITLES[key], n_params=prob.n_params,
+        lambda_kJ_per_mol=float(res.x[0]), lambda_se=float(se[0]), lambda_95=lam95, interval_method=method,
+        lambda_s_kJ_per_mol=ls, lambda_s_se=ls_se, lambda_v_kJ_per_mol=lv, lambda_v_se=lv_se,
+        log10_A=float(core[-1]), log10_A_se=float(se[len(core) - 1]),
+        log10_k_diff=None if lkd is None else float(lkd),
+        log10_k_diff_se=float(se[-1]) if prob.diffusion == "fitted" else None,
+        minus_dG0_at_max_kJ_per_mol=float(prob.model.minus_dG0_at_maximum_J(core) / KJ),
+        chi2=float(2.0 * res.cost), aic=float(aic), delta_aic=float(aic - best_aic), weight=float(weight),
+        theta=tuple(float(v) for v in res.x),
+    )
 
 
 def fit_series(
     series: SeriesData,
     temperature_K: float = STANDARD_TEMPERATURE,
-    diffusion: str = "fitted",
+    diffusion: str | None = None,
     k_diff: float | None = None,
     interval: str = "profile",
     bootstrap: int = 200,
     seed: int | None = 0,
     progress: Callable[[int, int], None] | None = None,
+    hbar_omega_cm1: float = DEFAULT_HBAR_OMEGA_CM1,
 ) -> SeriesFit:
-    """Fit log10 k_obs of a driving-force series for lambda, A and k_D; test for an inverted region.
+    """Fit log10 k of a driving-force series under the classical, semiclassical and no-inverted-region
+    models, report lambda from the model the data support, and test for an inverted region.
 
     Args:
-        series: the points (read_series_csv): Delta G deg in J/mol, k_obs in M^-1 s^-1, optional log10 SDs.
+        series: the points (read_series_csv): Delta G deg in J/mol, k (M^-1 s^-1 bimolecular, s^-1
+            intramolecular), optional log10 SDs.
         temperature_K: temperature of the series, K.
-        diffusion: 'fitted' (k_D a free parameter), 'fixed' (k_D = k_diff, M^-1 s^-1) or 'off' (k_obs = k_act).
+        diffusion: None (fitted for a bimolecular series, off for an intramolecular one), 'fitted', 'fixed'
+            (k_D = k_diff, M^-1 s^-1) or 'off'.
         interval: 'profile' (profile likelihood) or 'bootstrap' (parametric, `bootstrap` refits, `seed`,
             progress(done, total) after each).
+        hbar_omega_cm1: energy of the semiclassical model's quantized mode, cm^-1 (held fixed).
 
     Returns:
         SeriesFit. ScienceError for too few points, all points on the plateau, or a bad option.
     """
-    if diffusion not in ("fitted", "fixed", "off"):
-        raise ScienceError(f"diffusion {diffusion!r}: expected fitted, fixed or off")
-    if diffusion == "fixed" and not (k_diff is not None and math.isfinite(k_diff) and k_diff > 0):
-        raise ScienceError("a fixed diffusion limit needs k_D > 0 in M^-1 s^-1 (--k-diff K)")
-    if interval not in ("profile", "bootstrap"):
-        raise ScienceError(f"interval {interval!r}: expected profile or bootstrap")
+    kind, diffusion = _check_options(series, diffusion, k_diff, interval, float(hbar_omega_cm1))
     x = np.asarray(series.dG0_J_per_mol, dtype=float)
     y = np.log10(np.asarray(series.k_obs, dtype=float))
     n = len(y)
-    p = 3 if diffusion == "fitted" else 2
-    names = "lambda, A and k_D" if p == 3 else "lambda and A"
+    extra = 1 if diffusion == "fitted" else 0
+    p = 2 + extra
+    names = "lambda, A and k_D" if extra else "lambda and A"
     if n < p + 1:
         raise ScienceError(
             f"{series.path}: {n} point{'s' if n != 1 else ''} is too few to fit {names}: at least {p + 1} are "
@@ -263,111 +242,154 @@ def fit_series(
     given = series.has_sd
     sigma = np.asarray(series.log10_sd, dtype=float) if given else np.ones(n)
     spread = float(y.max() - y.min())
-    noise = float(np.median(sigma)) if given else MIN_LOG10_SD
-    if spread < max(3.0 * noise, 0.3):
+    if spread < max(3.0 * (float(np.median(sigma)) if given else MIN_LOG10_SD), 0.3):
         raise ScienceError(
             f"{series.path}: all {n} points lie within {spread:.2f} log10 units of each other (a flat series, "
             "such as the diffusion plateau): lambda cannot be determined; add partners with less driving force, "
             "whose rates fall below the plateau"
         )
-    lkd_fixed = math.log10(k_diff) if diffusion == "fixed" else None
     T = float(temperature_K)
-    prob = _Problem(x, y, sigma, T, diffusion, lkd_fixed, marcus_ln_k_act)
-    best = _fit(prob, _starts(prob))
-    theta = best.x
-    dof = n - p
-    chi2 = 2.0 * best.cost
+    hw = float(hbar_omega_cm1) * J_PER_MOL_PER_CM1
+    lkd_fixed = math.log10(k_diff) if diffusion == "fixed" else None
+    keys = [k for k in MODEL_KEYS if not (k == "semiclassical" and n < p + 2)]
+    probs = {k: Problem(SeriesModel(k, T, hw), x, y, sigma, diffusion, lkd_fixed) for k in keys}
+    res = {"classical": best_fit(probs["classical"], probs["classical"].starts())}
+    seeds = [res["classical"].x[0]]
+    res["no_inverted"] = best_fit(probs["no_inverted"], probs["no_inverted"].starts() + [res["classical"].x])
+    seeds.append(res["no_inverted"].x[0])
+    if "semiclassical" in probs:
+        res["semiclassical"] = best_fit(probs["semiclassical"], probs["semiclassical"].starts(seeds))
+    chi2 = {k: 2.0 * r.cost for k, r in res.items()}
     if given:
-        s2 = 1.0
-        sigma_used = sigma
-        sd_used = None
+        s2, sigma_used, sd_used = 1.0, sigma, None
     else:
-        s = max(math.sqrt(chi2 / dof), MIN_LOG10_SD)
-        s2 = s * s
-        sigma_used = np.full(n, s)
-        sd_used = s
-    J = best.jac
-    cov = np.linalg.pinv(J.T @ J) * s2
-    se = np.sqrt(np.clip(np.diag(cov), 0.0, None))
+        s = max(min(math.sqrt(chi2[k] / max(n - probs[k].n_params, 1)) for k in keys), MIN_LOG10_SD)
+        s2, sigma_used, sd_used = s * s, np.full(n, s), s
+    aic = {k: chi2[k] / s2 + 2.0 * probs[k].n_params for k in keys}
+    best = min(keys, key=lambda k: aic[k])
+    w = {k: math.exp(-(aic[k] - aic[best]) / 2.0) for k in keys}
+    wsum = sum(w.values())
+    fits = {}
+    for k in keys:
+        if k != best:
+            lam95, method = _wald_interval(res[k], s2), "wald"
+        elif interval == "profile":
+            se0 = float(np.sqrt(max(covariance(res[k], s2)[0, 0], 0.0)))
+            lam95, method = profile_interval(probs[k], res[k].x, s2, chi2[k] / s2, se0), "profile"
+        else:
+            lam95 = bootstrap_interval(probs[k], res[k].x, sigma_used, int(bootstrap), seed,
+                                       progress if k == best else None)
+            method = "bootstrap"
+        fits[k] = _model_fit(k, probs[k], res[k], s2, aic[k], aic[best], w[k] / wsum, lam95, method)
+    fav = fits[best]
+    # The reported interval: the favoured model's (profile or bootstrap), widened to cover the Wald interval
+    # of any model the data cannot tell apart from it. A semiclassical fit with no quantized part (phi ~ 0)
+    # is the classical model again and does not count twice.
+    close = [fits[k] for k in keys if fits[k].delta_aic < AIC_TIE
+             and not (k == "semiclassical" and k != best and res[k].x[1] < 1e-3)]
+    lows = [m.lambda_95[0] for m in close]
+    highs = [m.lambda_95[1] for m in close]
+    lam95 = (None if any(v is None for v in lows) else float(min(lows)),
+             None if any(v is None for v in highs) else float(max(highs)))
+    identified = lam95[0] is not None and lam95[1] is not None
 
-    if interval == "profile":
-        lam95 = _profile_interval(prob, theta, s2, chi2 / s2)
-    else:
-        lam95 = _bootstrap_interval(prob, theta, sigma_used, int(bootstrap), seed, progress)
-
-    null = _Problem(x, y, sigma, T, diffusion, lkd_fixed, plateau_ln_k_act)
-    nbest = _fit(null, _starts(null) + [theta])
-    delta_aic = (2.0 * nbest.cost - chi2) / s2  # equal parameter counts: the 2p terms cancel
-
-    lam_J = theta[0] * KJ
-    lkd = float(theta[2]) if diffusion == "fitted" else lkd_fixed
-    fit_y = prob.predict(theta)
-    # The plateau is the curve's top, at -Delta G deg = lambda where k_act = A.
-    plateau = float(series_ln_k_obs(theta[1] * LN10, None if lkd is None else lkd * LN10) / LN10)
-    ln_act = marcus_ln_k_act(x, lam_J, theta[1] * LN10, T)
-    regions = classify_regime(x, lam_J, T)
-    dc = (diffusion_controlled(ln_act, lkd * LN10) if lkd is not None else np.zeros(n, bool))
-    past = -x > lam_J
-    below = y < plateau - 2.0 * sigma_used
+    # The inverted-region test under the favoured model (or the better model with an inverted region).
+    inv_key = best if best != "no_inverted" else min((k for k in keys if k != "no_inverted"), key=lambda k: aic[k])
+    inv, inv_prob = fits[inv_key], probs[inv_key]
+    inv_core, lkd = inv_prob.split(np.asarray(inv.theta))
+    top_J = inv.minus_dG0_at_max_kJ_per_mol * KJ
+    fav_prob = probs[best]
+    fav_core, fav_lkd = fav_prob.split(np.asarray(fav.theta))
+    fav_top_J = fav.minus_dG0_at_max_kJ_per_mol * KJ
+    plateau = float(fav_prob.predict(np.asarray(fav.theta), np.array([-fav_top_J]))[0])
+    inv_plateau = float(inv_prob.predict(np.asarray(inv.theta), np.array([-top_J]))[0])
     off_plateau = int(np.sum(y < plateau - np.maximum(2.0 * sigma_used, 0.2)))
     if off_plateau < 2:
         raise ScienceError(
             f"{series.path}: only {off_plateau} of {n} points lie clearly below the fitted plateau "
-            f"(10^{plateau:.2f} M^-1 s^-1): the points sit on the plateau and lambda cannot be determined; add "
-            "partners with less driving force"
+            f"(10^{plateau:.2f} {series_unit(kind)}): the points sit on the plateau and lambda cannot be "
+            "determined; add partners with less driving force"
         )
+    past = -x > top_J
+    below = y < inv_plateau - 2.0 * sigma_used
     n_inv = int(np.sum(past & below))
-    supported = bool(delta_aic >= AIC_THRESHOLD and n_inv >= MIN_INVERTED_POINTS)
+    delta_aic = float(aic["no_inverted"] - aic[inv_key])
+    supported = bool(best != "no_inverted" and delta_aic >= AIC_THRESHOLD and n_inv >= MIN_INVERTED_POINTS)
+    ln_act = fav_prob.model.ln_k_act(fav_core, x)
+    dc = diffusion_controlled(ln_act, fav_lkd * LN10) if fav_lkd is not None else np.zeros(n, bool)
     evidence = inverted_region_evidence(
-        supported=supported, delta_aic=float(delta_aic), threshold=AIC_THRESHOLD, n_past=int(np.sum(past)),
-        n_past_below=n_inv, min_points=MIN_INVERTED_POINTS, lambda_eV=lam_J / EV,
-        depths=(plateau - y)[past & below], diffusion=diffusion, n_dc=int(np.sum(dc)),
+        supported=supported, delta_aic=delta_aic, threshold=AIC_THRESHOLD, n_past=int(np.sum(past)),
+        n_past_below=n_inv, min_points=MIN_INVERTED_POINTS, max_eV=top_J / EV, depths=(inv_plateau - y)[past & below],
+        diffusion=diffusion, n_dc=int(np.sum(dc)), model_title=inv.title, favoured=best,
     )
+    fit_y = fav_prob.predict(np.asarray(fav.theta))
+    fav_past = -x > fav_top_J
+    regions = classify_regime(x, fav_top_J, T)
     points = tuple(
         SeriesPoint(
             line=series.lines[i] if i < len(series.lines) else None,
             label=series.labels[i] if i < len(series.labels) else "",
-            dG0_kJ_per_mol=float(x[i] / KJ),
-            log10_k_obs=float(y[i]),
-            log10_sd=float(sigma_used[i]),
-            log10_k_fit=float(fit_y[i]),
-            residual=float(y[i] - fit_y[i]),
-            region=REGIME_NAMES[int(regions[i])],
-            diffusion_controlled=bool(dc[i]),
-            past_maximum=bool(past[i]),
-            below_plateau=bool(below[i]),
+            dG0_kJ_per_mol=float(x[i] / KJ), log10_k_obs=float(y[i]), log10_sd=float(sigma_used[i]),
+            log10_k_fit=float(fit_y[i]), residual=float(y[i] - fit_y[i]), region=REGIME_NAMES[int(regions[i])],
+            diffusion_controlled=bool(dc[i]), past_maximum=bool(fav_past[i]),
+            below_plateau=bool(y[i] < plateau - 2.0 * sigma_used[i]),
         )
         for i in range(n)
     )
-    warnings = []
-    if given and chi2 / max(dof, 1) > 4.0:
-        warnings.append(
-            f"reduced chi-square {chi2 / dof:.1f}: the scatter is larger than the stated SDs; the errors are "
-            "likely underestimated"
-        )
-    lo_b, hi_b = prob.bounds()
-    names_b = ("lambda", "log10 A", "log10 k_D")
-    for k in range(len(theta)):
-        if min(theta[k] - lo_b[k], hi_b[k] - theta[k]) < 1e-6 * max(1.0, abs(theta[k])):
-            what = "no diffusion plateau is seen; consider --no-diffusion or --k-diff" if k == 2 else "not determined"
-            warnings.append(f"{names_b[k]} ended at the edge of its search range ({theta[k]:.4g}): {what}")
-    if lam95[1] is None or lam95[0] is None:
-        warnings.append("the lambda interval is open on one side within 1-2000 kJ/mol: the data bound it weakly")
+    warnings = _warnings(given, chi2[best], n - probs[best].n_params, fav_prob, res[best].x, identified, keys, n, p)
     return SeriesFit(
-        n=n, temperature_K=T, diffusion=diffusion,
-        lambda_kJ_per_mol=float(theta[0]), lambda_se=float(se[0]), lambda_eV=float(lam_J / EV),
-        lambda_95=lam95, interval_method=interval,
-        log10_A=float(theta[1]), log10_A_se=float(se[1]),
-        log10_k_diff=lkd, log10_k_diff_se=float(se[2]) if diffusion == "fitted" else None,
-        minus_dG0_at_max_kJ_per_mol=float(theta[0]), minus_dG0_at_max_eV=float(lam_J / EV),
-        log10_k_plateau=plateau, chi2=float(chi2), dof=dof,
-        scatter="given" if given else "estimated", log10_sd_used=sd_used,
-        delta_aic=float(delta_aic),
-        no_inverted_fit={
-            "lambda_kJ_per_mol": float(nbest.x[0]),
-            "log10_A": float(nbest.x[1]),
-            "log10_k_diff": float(nbest.x[2]) if diffusion == "fitted" else lkd_fixed,
-            "chi2": float(2.0 * nbest.cost),
-        },
-        inverted_region_supported=supported, evidence=evidence, points=points, warnings=tuple(warnings),
+        kind=kind, rate_unit=series_unit(kind), n=n, temperature_K=T, diffusion=diffusion,
+        hbar_omega_cm1=float(hbar_omega_cm1), model=best,
+        lambda_kJ_per_mol=fav.lambda_kJ_per_mol, lambda_se=fav.lambda_se, lambda_eV=fav.lambda_kJ_per_mol * KJ / EV,
+        lambda_95=lam95, lambda_identified=identified,
+        lambda_statement=lambda_statement(fav, lam95, [m.title for m in close if m is not fav]),
+        interval_method=fav.interval_method,
+        lambda_s_kJ_per_mol=fav.lambda_s_kJ_per_mol, lambda_v_kJ_per_mol=fav.lambda_v_kJ_per_mol,
+        log10_A=fav.log10_A, log10_A_se=fav.log10_A_se, log10_k_diff=fav.log10_k_diff,
+        log10_k_diff_se=fav.log10_k_diff_se,
+        minus_dG0_at_max_kJ_per_mol=fav.minus_dG0_at_max_kJ_per_mol,
+        minus_dG0_at_max_eV=fav.minus_dG0_at_max_kJ_per_mol * KJ / EV,
+        log10_k_plateau=plateau, chi2=float(chi2[best]), dof=n - probs[best].n_params,
+        scatter="given" if given else "estimated", log10_sd_used=sd_used, delta_aic=delta_aic,
+        model_comparison=model_comparison([fits[k] for k in keys], best),
+        inverted_region_supported=supported, evidence=evidence, models=tuple(fits[k] for k in keys),
+        points=points, warnings=tuple(warnings),
     )
+
+
+def _wald_interval(result, s2):
+    """95 % interval for lambda from its Jacobian SE on a log scale (lambda > 0): lambda exp(+-1.96 SE/lambda);
+    a side beyond the search range (1-2000 kJ/mol) is open (None)."""
+    lam = float(result.x[0])
+    rel = float(np.sqrt(max(covariance(result, s2)[0, 0], 0.0))) / lam
+    if not rel < 5.0:  # SE several times lambda itself: nothing is bounded
+        return None, None
+    lo, hi = lam * math.exp(-1.96 * rel), lam * math.exp(1.96 * rel)
+    return (lo if lo > LAMBDA_BOUNDS_KJ[0] else None, hi if hi < LAMBDA_BOUNDS_KJ[1] else None)
+
+
+def series_unit(kind: str) -> str:
+    """The rate unit of a series kind: M^-1 s^-1 (bimolecular) or s^-1 (unimolecular)."""
+    return "s^-1" if kind == "unimolecular" else "M^-1 s^-1"
+
+
+def _warnings(given, chi2, dof, prob, theta, identified, keys, n, p):
+    out = []
+    if given and chi2 / max(dof, 1) > 4.0:
+        out.append(f"reduced chi-square {chi2 / max(dof, 1):.1f}: the scatter is larger than the stated SDs; the "
+                   "errors are likely underestimated")
+    lo_b, hi_b = prob.bounds()
+    names = list(prob.model.names) + (["log10 k_D"] if prob.diffusion == "fitted" else [])
+    for k, name in enumerate(names):
+        if name == "phi":
+            continue  # phi = 0 (no quantized mode) is a legitimate answer, not a failure
+        if min(theta[k] - lo_b[k], hi_b[k] - theta[k]) < 1e-6 * max(1.0, abs(theta[k])):
+            what = ("no diffusion plateau is seen; consider --no-diffusion or --k-diff" if name == "log10 k_D"
+                    else "not determined")
+            out.append(f"{name} ended at the edge of its search range ({theta[k]:.4g}): {what}")
+    if not identified:
+        out.append(f"the lambda interval is open within {LAMBDA_BOUNDS_KJ[0]:g}-{LAMBDA_BOUNDS_KJ[1]:g} kJ/mol: "
+                   "the data do not determine lambda")
+    if "semiclassical" not in keys:
+        out.append(f"{n} points are too few for the semiclassical model (at least {p + 2} needed); it was not fitted")
+    return out

@@ -52,3 +52,13 @@ def test_series_examples():
     no = fit_series(read_series_csv(EXAMPLES / "series_plateau_demo.csv"))
     assert not no.inverted_region_supported
     assert "plateau" in no.evidence
+
+
+def test_intramolecular_series_example():
+    # Invented demo (generated with lambda_s = 0.30 eV, lambda_v = 0.50 eV, hbar omega = 1500 cm^-1, noise
+    # 0.1): a gentle falloff, so the semiclassical model is favoured and the inverted region supported.
+    fit = fit_series(read_series_csv(EXAMPLES / "series_intra_demo.csv"))
+    assert fit.kind == "unimolecular" and fit.model == "semiclassical"
+    assert fit.inverted_region_supported
+    lo, hi = fit.lambda_95
+    assert lo < 0.80 * 96.485 < hi  # lambda = lambda_s + lambda_v = 0.80 eV (x 96.485 kJ/mol per eV)

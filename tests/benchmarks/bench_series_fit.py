@@ -1,0 +1,93 @@
+"""Coverage and speed of `crossrate fit` (issues 11 and 14). Prints figures; asserts nothing (not a pytest test).
+
+Run: .venv/bin/python tests/benchmarks/bench_series_fit.py [N]   (N series per kind, default 50)
+Targets: coverage of the reported 95 % lambda interval >= 90 % for every kind (an open side counts as
+covering); semiclassical intramolecular series: lambda_s and lambda_v within 10 % of the truth; one fit
+<= 0.5 s. The series are generated from formulas written here (the same as tests/analysis/
+test_analysis_fit_models.py), not from the fitting code.
+"""
+
+import math
+import statistics
+import sys
+import time
+from pathlib import Path
+
+REPO = Path(__file__).resolve().parents[2]
+sys.path.insert(0, str(REPO))
+sys.path.insert(0, str(REPO / "tests" / "analysis"))
+
+import numpy as np  # noqa: E402
+from test_analysis_fit_models import (  # noqa: E402
+    CM1_KJ,
+    EV_KJ,
+    covers,
+    log10_levelled,
+    log10_marcus,
+    log10_mlj_cold,
+    series,
+    with_cap,
+)
+
+from crossrate.errors import ScienceError  # noqa: E402
+from crossrate.services.series_fit import fit_series  # noqa: E402
+
+LAM = 0.8 * EV_KJ
+LS, LV, HW = 0.35 * EV_KJ, 0.45 * EV_KJ, 1500.0 * CM1_KJ
+
+
+def kinds():
+    wide = -np.linspace(-0.2, 1.6, 13) * EV_KJ
+    fall = -np.linspace(-0.2, 2.0, 13) * EV_KJ
+    intra = -np.linspace(0.0, 2.4, 16) * EV_KJ
+    few = -np.array([-0.2, 0.2, 0.5, 0.8, 1.1, 1.4]) * EV_KJ
+    return {
+        "plateau, no falloff (k_D, levelled curve)": (wide, with_cap(log10_levelled(wide, LAM, 11.0), 9.7), 0.15,
+                                                      "bimolecular", LAM),
+        "falloff (k_D, classical curve)": (fall, with_cap(log10_marcus(fall, LAM, 11.0), 9.7), 0.15,
+                                           "bimolecular", LAM),
+        "no cap, semiclassical (s^-1)": (intra, log10_mlj_cold(intra, LS, LV, HW, 11.0), 0.1, "unimolecular",
+                                         LS + LV),
+        "few points (6, k_D)": (few, with_cap(log10_marcus(few, LAM, 11.0), 9.7), 0.15, "bimolecular", LAM),
+        "large noise (0.5 log10, k_D)": (fall, with_cap(log10_marcus(fall, LAM, 11.0), 9.7), 0.5,
+                                         "bimolecular", LAM),
+    }
+
+
+def main(n: int) -> None:
+    print(f"{n} series per kind; truth lambda = {LAM:.1f} kJ/mol (classical kinds), "
+          f"lambda_s = {LS:.1f}, lambda_v = {LV:.1f} kJ/mol (semiclassical)")
+    times = []
+    for name, (dG, log_k, noise, kind, truth) in kinds().items():
+        hit = opened = refused = 0
+        models = {}
+        rel_s, rel_v = [], []
+        for seed in range(n):
+            t0 = time.perf_counter()
+            try:
+                fit = fit_series(series(dG, log_k, noise, 1000 + seed, kind=kind))
+            except ScienceError:
+                refused += 1  # e.g. the noise hides every point below the plateau: said so, no number
+                continue
+            times.append(time.perf_counter() - t0)
+            hit += covers(fit, truth)
+            opened += not fit.lambda_identified
+            models[fit.model] = models.get(fit.model, 0) + 1
+            if kind == "unimolecular" and fit.model == "semiclassical":
+                rel_s.append(abs(fit.lambda_s_kJ_per_mol / LS - 1.0))
+                rel_v.append(abs(fit.lambda_v_kJ_per_mol / LV - 1.0))
+        done = n - refused
+        line = (f"{name:45s} coverage {100.0 * hit / max(done, 1):5.1f} % (target >= 90 %) of {done} fitted; "
+                f"{refused} refused; open intervals {opened}; favoured {models}")
+        print(line)
+        if rel_s:
+            within = sum(a <= 0.10 and b <= 0.10 for a, b in zip(rel_s, rel_v, strict=True))
+            print(f"{'':45s} lambda_s and lambda_v both within 10 %: {within}/{len(rel_s)}; median error "
+                  f"lambda_s {100 * statistics.median(rel_s):.1f} %, lambda_v {100 * statistics.median(rel_v):.1f} %")
+    times.sort()
+    print(f"one fit: median {statistics.median(times):.3f} s, 95th percentile "
+          f"{times[math.ceil(0.95 * len(times)) - 1]:.3f} s, slowest {times[-1]:.3f} s (target <= 0.5 s)")
+
+
+if __name__ == "__main__":
+    main(int(sys.argv[1]) if len(sys.argv) > 1 else 50)
