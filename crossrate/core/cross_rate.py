@@ -19,7 +19,8 @@ from .cross_relation import ln_f12, ln_k12_cross, ln_W12
 from .diffusion import ln_k_diffusion, ln_k_observed, stokes_einstein_diffusion
 from .driving_force import ln_equilibrium_constant, reaction_free_energy
 from .regime import classify_regime, diffusion_controlled
-from .work_terms import work_term
+from .screened_debye_table import bjerrum_length, screened_ln_factor
+from .work_terms import debye_kappa, work_term
 
 
 @dataclass(frozen=True)
@@ -67,8 +68,13 @@ def cross_rate(
     diffusion=True,
     ln_kappa11=0.0,
     ln_kappa22=0.0,
+    d_ln_k_diff=0.0,
 ):
-    """Marcus cross relation with work terms and the Debye-Smoluchowski diffusion cap, for many pairs.
+    """Marcus cross relation with work terms and Debye's diffusion cap, for many pairs.
+
+    Diffusion limit: k_D = 4 pi N_A (D1 + D2) r12 F, D from Stokes-Einstein, F the Debye factor of Debye's
+    (1942) integral; at finite ionic strength with the screened (Debye-Hueckel) potential, evaluated
+    numerically (crossrate.core.screened_diffusion), at I = 0 the closed form delta / (e^delta - 1).
 
     Electronic transmission factors (non-adiabatic couples): each self-exchange is taken as
     k_ii = kappa_ii Z exp(-(w_ii + lambda_ii/4)/RT) and the cross reaction as
@@ -88,6 +94,7 @@ def cross_rate(
         diffusion: apply the diffusion cap 1/k_obs = 1/k_act + 1/k_D; when False k_obs = k_act.
         ln_kappa11, ln_kappa22: ln of the electronic transmission factors kappa_el of the two couples
             (0 < kappa <= 1, so ln_kappa <= 0; default 0, adiabatic).
+        d_ln_k_diff: shift added to ln k_D (natural log), for propagating the uncertainty of k_D.
 
     Returns:
         CrossRateArrays (J/mol and ln(M^-1 s^-1)).
@@ -119,7 +126,13 @@ def cross_rate(
 
     D1 = stokes_einstein_diffusion(r1, viscosity_Pa_s, T_K)
     D2 = stokes_einstein_diffusion(r2, viscosity_Pa_s, T_K)
-    ln_kD = ln_k_diffusion(D1, D2, r12, w12, T_K)
+    kappa = debye_kappa(I_M, eps_r, T_K)
+    if np.all(np.asarray(kappa) == 0.0):
+        ln_kD = ln_k_diffusion(D1, D2, r12, w12, T_K)  # unscreened: the closed form is Debye's integral exactly
+    else:
+        zz = np.asarray(z_ox1, dtype=float) * np.asarray(z_red2, dtype=float)
+        ln_kD = ln_k_diffusion(D1, D2, r12, 0.0, T_K) + screened_ln_factor(zz, r12, bjerrum_length(eps_r, T_K), kappa)
+    ln_kD = ln_kD + np.asarray(d_ln_k_diff, dtype=float)
     ln_kobs = ln_k_observed(ln_k_act, ln_kD) if diffusion else np.asarray(ln_k_act, dtype=float)
 
     return CrossRateArrays(

@@ -1,13 +1,15 @@
 """Fast path for many pairs at one set of conditions: ln k_obs (and optionally the regime) only.
 
 Same model and results as :func:`crossrate.core.cross_rate.cross_rate` (Marcus cross relation with
-work terms, Debye-Smoluchowski diffusion cap), evaluated in its barrier form, which is algebraically the
-same as the cross relation. Speed comes from structure, not from a different equation:
+work terms, Debye's diffusion cap with the screened potential), evaluated in its barrier form, which is
+algebraically the same as the cross relation. Speed comes from structure, not from a different equation:
 
 * everything that belongs to one couple (its self-exchange work w_ii, lambda_ii, diffusion coefficient,
   F E / RT) is computed once per couple, not once per pair;
 * w12 and w21 share the screened-Coulomb distance factor 1 / (eps r12 (1 + kappa r12)), computed once;
 * all quantities are carried in units of RT, so no per-pair division by RT;
+* at finite ionic strength the screened Debye factor is read from a table along r12 per charge product
+  (crossrate.core.screened_diffusion.ScreenedDebyeTable, within 2e-5 in ln k_D), built once per call;
 * pairs are processed in row blocks that fit the L2 cache, into preallocated buffers, by a small pool of
   threads (numpy releases the GIL inside its loops).
 """
@@ -34,6 +36,8 @@ from .regime import (
     INVERTED,
     NORMAL,
 )
+from .screened_debye_table import position_piece, read_table, table_for
+from .screened_diffusion import ln_screened_debye_factor
 from .work_terms import debye_kappa
 
 #: Pairs per block. Measured on the 2-core target (tests/benchmarks/bench_core.py): 8 float64 scratch arrays
@@ -86,6 +90,8 @@ class _Conditions:
         self.coulomb_RT = ELEMENTARY_CHARGE**2 * AVOGADRO / (4.0 * np.pi * VACUUM_PERMITTIVITY * eps) / self.RT
         # 4 pi N_A (D1 + D2) r12 in M^-1 s^-1 with D = k_B T / (6 pi eta a) (Stokes-Einstein).
         self.diff_prefactor = 4.0 * np.pi * AVOGADRO * LITRES_PER_M3 * BOLTZMANN * T / (6.0 * np.pi * eta)
+        #: Screened diffusion limit: kappa > 0 (NaN, an unknown ionic strength, keeps the NaN path).
+        self.screened = self.kappa > 0.0
         self.f_RT = FARADAY / self.RT
 
 
@@ -122,8 +128,9 @@ class _Side:
 
 
 def _kernel(c: _Conditions, ox: dict, red: dict, one_electron: bool, safe_delta: bool, diffusion: bool,
-            out_ln, out_reg, out_dc, s):
-    """ln k_obs for one block. ox/red values broadcast to the block shape; s holds scratch buffers."""
+            out_ln, out_reg, out_dc, s, table=None):
+    """ln k_obs for one block. ox/red values broadcast to the block shape; s holds scratch buffers; table:
+    the ScreenedDebyeTable of these conditions (ox/red then carry its position pieces "ta" and "lkd")."""
     r12, g, w, y, t, u = s["r12"], s["g"], s["w"], s["y"], s["t"], s["u"]
     np.add(ox["r"], red["r"], out=r12)
     # Screened-Coulomb distance factor in RT units, shared by w12 and w21.
@@ -135,6 +142,12 @@ def _kernel(c: _Conditions, ox: dict, red: dict, one_electron: bool, safe_delta:
     else:
         np.divide(c.coulomb_RT, r12, out=g)
     np.multiply(ox["z_ox"], red["z_red"], out=w)
+    if table is not None and diffusion:
+        # Table position z1 z2 n + r12 / step + constant; r12 / step is split between the two sides.
+        tk = s["tk"]
+        np.multiply(w, float(table.n), out=tk)
+        np.add(tk, ox["ta"], out=tk)
+        np.add(tk, red["ta"], out=tk)
     np.multiply(w, g, out=w)  # w12 / RT
     # y = Delta G deg' / (4 RT) = [Delta G deg + w21 - w12] / (4 RT).
     if one_electron:
@@ -181,7 +194,20 @@ def _kernel(c: _Conditions, ox: dict, red: dict, one_electron: bool, safe_delta:
             out_dc[...] = False
         return
     kD = s["kD"]
-    if safe_delta:
+    if table is not None:
+        # ln k_D = [ln F + 2 ln r12] (table, linear interpolation) + (ln P / 2 - ln r1) + (ln P / 2 - ln r2),
+        # since 4 pi N_A (D1 + D2) r12 = P r12^2 / (r1 r2) with D from Stokes-Einstein.
+        read_table(table, s["tk"], s["idx"], kD, u)
+        np.add(kD, ox["lkd"], out=kD)
+        np.add(kD, red["lkd"], out=kD)
+    elif c.screened:
+        # Screened, but no table (charges not integers): Debye's integral pair by pair.
+        np.add(ox["neg_kD"], red["neg_kD"], out=kD)
+        np.multiply(kD, r12, out=kD)
+        np.negative(kD, out=kD)
+        np.log(kD, out=kD)
+        kD += ln_screened_debye_factor(w, c.kappa * r12)
+    elif safe_delta:
         # Debye-Smoluchowski: ln k_D = ln[prefactor (1/r1 + 1/r2) r12 a / (1 - e^-a)] - max(delta, 0), a = |delta|.
         np.abs(w, out=t)
         np.add(t, _TINY, out=t)
@@ -214,7 +240,7 @@ def _kernel(c: _Conditions, ox: dict, red: dict, one_electron: bool, safe_delta:
     np.subtract(kD, t, out=out_ln)
 
 
-_SCRATCH = ("r12", "g", "w", "y", "t", "u", "act", "kD")
+_SCRATCH = ("r12", "g", "w", "y", "t", "u", "act", "kD", "tk")
 
 
 def _side_columns(side: _Side, with_kappa: bool = False):
@@ -233,6 +259,11 @@ def _side_columns(side: _Side, with_kappa: bool = False):
     if with_kappa:
         cols["lk2"] = side.half_ln_kappa if side.half_ln_kappa is not None else np.zeros_like(side.r)
     return cols
+
+
+def _table_columns(c: _Conditions, side: _Side, table, first: bool) -> dict:
+    """Per-couple pieces of a pair's table position ("ta") and of ln k_D outside the table ("lkd")."""
+    return {"ta": position_piece(table, side.r, first), "lkd": 0.5 * np.log(c.diff_prefactor) - np.log(side.r)}
 
 
 def _checks(c, ox, red):
@@ -272,15 +303,16 @@ def _buffers(scratch, shape):
             scratch[name] = np.empty(size)
         scratch["mask"] = np.empty(size, dtype=bool)
         scratch["i8"] = np.empty(size, dtype=np.int8)
+        scratch["idx"] = np.empty(size, dtype=np.intp)
         scratch["_size"] = size
-    return {name: scratch[name][:size].reshape(shape) for name in (*_SCRATCH, "mask", "i8")}
+    return {name: scratch[name][:size].reshape(shape) for name in (*_SCRATCH, "mask", "i8", "idx")}
 
 
 def ln_k_obs_grid(
     E1_V, z_ox1, z_red1, r1_m, ln_k11,
     E2_V, z_ox2, z_red2, r2_m, ln_k22,
     T_K, I_M, eps_r, viscosity_Pa_s, ln_Z,
-    diffusion=True, classify=False, workers=DEFAULT_WORKERS, ln_kappa1=None, ln_kappa2=None,
+    diffusion=True, classify=False, workers=DEFAULT_WORKERS, ln_kappa1=None, ln_kappa2=None, debye_table=None,
 ) -> RateGrid:
     """ln k_obs for every pair (oxidant i, reductant j): an (n_ox x n_red) grid, one set of conditions.
 
@@ -298,6 +330,8 @@ def ln_k_obs_grid(
         workers: threads to use.
         ln_kappa1, ln_kappa2: ln kappa_el per oxidant / reductant couple (None: adiabatic), as
             cross_rate's ln_kappa11 / ln_kappa22.
+        debye_table: a ScreenedDebyeTable from screened_debye_table() for these conditions, used when it
+            covers these pairs (otherwise one is made when there are TABLE_MIN_PAIRS pairs or more).
 
     Returns:
         RateGrid with arrays of shape (n_ox, n_red).
@@ -307,21 +341,27 @@ def ln_k_obs_grid(
     red = _Side(c, E2_V, z_ox2, z_red2, r2_m, ln_k22, ln_kappa2)
     with_kappa = ox.half_ln_kappa is not None or red.half_ln_kappa is not None
     one_electron, safe = _checks(c, ox, red)
+    table = table_for(ox.z_ox, ox.r, red.z_red, red.r, c.coulomb_RT, c.kappa if diffusion else 0.0,
+                      ox.r.size * red.r.size, debye_table)
     n_ox, n_red = ox.r.shape[0], red.r.shape[0]
     out = np.empty((n_ox, n_red))
     reg = np.empty((n_ox, n_red), dtype=np.int8) if classify else None
     dc = np.empty((n_ox, n_red), dtype=bool) if classify else None
     rows = max(1, BLOCK_PAIRS // max(n_red, 1))
     n_blocks = -(-n_ox // rows) if n_red else 0
-    ox_cols = {k: v[:, None] for k, v in _side_columns(ox, with_kappa).items()}
-    red_cols = {k: v[None, :] for k, v in _side_columns(red, with_kappa).items()}
+    ox_c, red_c = _side_columns(ox, with_kappa), _side_columns(red, with_kappa)
+    if table is not None:
+        ox_c.update(_table_columns(c, ox, table, True))
+        red_c.update(_table_columns(c, red, table, False))
+    ox_cols = {k: v[:, None] for k, v in ox_c.items()}
+    red_cols = {k: v[None, :] for k, v in red_c.items()}
 
     def block(k, scratch):
         i0, i1 = k * rows, min(n_ox, (k + 1) * rows)
         s = _buffers(scratch, (i1 - i0, n_red))
         _kernel(
             c, {n: v[i0:i1] for n, v in ox_cols.items()}, red_cols, one_electron, safe, bool(diffusion),
-            out[i0:i1], None if reg is None else reg[i0:i1], None if dc is None else dc[i0:i1], s,
+            out[i0:i1], None if reg is None else reg[i0:i1], None if dc is None else dc[i0:i1], s, table,
         )
 
     _run(n_blocks, block, workers)
@@ -332,7 +372,7 @@ def ln_k_obs_pairs(
     ox_index, red_index,
     E_V, z_ox, z_red, r_m, ln_k_self,
     T_K, I_M, eps_r, viscosity_Pa_s, ln_Z,
-    diffusion=True, classify=False, workers=DEFAULT_WORKERS, ln_kappa=None,
+    diffusion=True, classify=False, workers=DEFAULT_WORKERS, ln_kappa=None, debye_table=None,
 ) -> RateGrid:
     """ln k_obs for listed pairs (ox_index[k], red_index[k]) of one couple list, one set of conditions.
 
@@ -344,6 +384,7 @@ def ln_k_obs_pairs(
         E_V (V), z_ox, z_red, r_m (m), ln_k_self (ln(M^-1 s^-1), at these conditions): 1-D per-couple columns.
         T_K, I_M, eps_r, viscosity_Pa_s, ln_Z, diffusion, classify, workers: as for ln_k_obs_grid.
         ln_kappa: ln kappa_el per couple (None: adiabatic), as cross_rate's ln_kappa11 / ln_kappa22.
+        debye_table: as for ln_k_obs_grid.
 
     Returns:
         RateGrid with 1-D arrays, one value per pair.
@@ -357,6 +398,8 @@ def ln_k_obs_pairs(
         raise ValueError(f"{ox_i.shape[0]} oxidant positions but {red_i.shape[0]} reductant positions")
     # Checked over the whole couple list (cheaper than finding the couples actually used).
     one_electron, safe = _checks(c, side, side)
+    table = table_for(side.z_ox, side.r, side.z_red, side.r, c.coulomb_RT, c.kappa if diffusion else 0.0,
+                      np.asarray(ox_index).size, debye_table)
     n = ox_i.shape[0]
     out = np.empty(n)
     reg = np.empty(n, dtype=np.int8) if classify else None
@@ -370,9 +413,16 @@ def ln_k_obs_pairs(
     extra = ("lk2",) if with_kappa else ()
     ox_names = ("r", "z_ox", "z_ox4", "fE4", "m", "neg_kD") + (() if one_electron else ("z_red4",)) + extra
     red_names = ("r", "z_red", "z_ox4", "fE4", "m", "neg_kD") + (() if one_electron else ("z_ox",)) + extra
+    ox_cols, red_cols = cols, cols
+    if table is not None:
+        ox_cols = {**cols, **_table_columns(c, side, table, True)}
+        red_cols = {**cols, **_table_columns(c, side, table, False)}
+        ox_names += ("ta", "lkd")
+        red_names += ("ta", "lkd")
     n_blocks = -(-n // BLOCK_PAIRS)
 
     def gather(names, idx, scratch, tag):
+        cols = ox_cols if tag == "ox" else red_cols
         got = {}
         for name in names:
             key = f"{tag}_{name}"
@@ -389,7 +439,7 @@ def ln_k_obs_pairs(
         red_b = gather(red_names, red_i[i0:i1], scratch, "red")
         _kernel(
             c, ox_b, red_b, one_electron, safe, bool(diffusion),
-            out[i0:i1], None if reg is None else reg[i0:i1], None if dc is None else dc[i0:i1], s,
+            out[i0:i1], None if reg is None else reg[i0:i1], None if dc is None else dc[i0:i1], s, table,
         )
 
     _run(n_blocks, block, workers)

@@ -10,6 +10,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..core.rate_grid import ln_k_obs_pairs
+from ..core.screened_debye_table import TABLE_MIN_PAIRS, screened_debye_table
 from ..core.solvents import get_solvent
 from ..library.couple_set import CoupleSet
 from .couple_lambda import lambda_columns
@@ -106,6 +107,9 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     for g, lnk in zip(groups, ln_k_by_group, strict=True):
         o, rr = ox[g.rows], red[g.rows] + N
         k2 = np.concatenate([lnk, lnk])
+        # k_D does not move with E or k_self: one screened-diffusion table serves the four shifted evaluations.
+        table = screened_debye_table(z_ox, r, z_red, r, T_K, g.I_M, g.eps_r) \
+            if diffusion and o.size >= TABLE_MIN_PAIRS else None
         for which, h, spread in ((0, STEP_E_V, sE), (1, STEP_LN_K, sK)):
             vals = []
             for sign in (1.0, -1.0):
@@ -119,6 +123,6 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
                 with np.errstate(invalid="ignore"):
                     vals.append(ln_k_obs_pairs(o, rr, E, z_ox, z_red, r, lk, T_K, g.I_M, g.eps_r,
                                                g.viscosity_Pa_s, ln_Z, diffusion=diffusion,
-                                               ln_kappa=ln_kap2).ln_k_obs)
+                                               ln_kappa=ln_kap2, debye_table=table).ln_k_obs)
             var[g.rows] += ((vals[0] - vals[1]) / (2.0 * h) * spread[g.rows]) ** 2
     return np.sqrt(var)

@@ -13,6 +13,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..core.rate_grid import ln_k_obs_grid
+from ..core.screened_debye_table import TABLE_MIN_PAIRS, screened_debye_table
 from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
@@ -150,13 +151,16 @@ def rate_map(
         ln_kap = np.log(se.kappa_el)  # non-adiabatic couples: as cross_rate's ln_kappa11 / ln_kappa22
         cols = pos[ok]
         m = members[ok]
+        # One screened-diffusion table for all row blocks of this group (None at I = 0 or for small maps).
+        table = screened_debye_table(a.z_ox[m], a.radius_m[m], a.z_red[m], a.radius_m[m], T, I, eps) \
+            if cond.diffusion and m.size * m.size >= TABLE_MIN_PAIRS else None
         for s in range(0, m.size, ROWS_PER_STEP):
             r = slice(s, s + ROWS_PER_STEP)
             grid = ln_k_obs_grid(
                 a.E_root_V[m[r]], a.z_ox[m[r]], a.z_red[m[r]], a.radius_m[m[r]], se.ln_k[ok][r],
                 a.E_root_V[m], a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok],
                 T, I, eps, visc, ln_Z, diffusion=cond.diffusion,
-                ln_kappa1=ln_kap[ok][r], ln_kappa2=ln_kap[ok],
+                ln_kappa1=ln_kap[ok][r], ln_kappa2=ln_kap[ok], debye_table=table,
             )
             out[np.ix_(cols[r], cols)] = grid.ln_k_obs / LN10
             done += int(cols[r].size)

@@ -31,8 +31,10 @@ def test_grouped_equals_per_pair_path(couple_set, cond, monkeypatch):
     assert fast.problem == slow.problem
     for name in ("log10_k_obs", "log10_k_act", "dG0_kJ_per_mol", "lambda_kJ_per_mol"):
         np.testing.assert_array_equal(np.asarray(getattr(fast, name)), np.asarray(getattr(slow, name)))
-    # The SD is a central difference of the same model on two code paths: equal to ~1e-9 relative.
-    np.testing.assert_allclose(fast.log10_k_obs_sd_linear, slow.log10_k_obs_sd_linear, rtol=1e-7, atol=1e-12)
+    # The SD is a central difference of the same model on two code paths: equal to ~1e-9 relative, but for
+    # k_D, which the grouped path reads from a table (TABLE_TOLERANCE in ln k_D; the slopes of ln k_obs move
+    # with k_obs / k_D by as much): 1e-4 relative.
+    np.testing.assert_allclose(fast.log10_k_obs_sd_linear, slow.log10_k_obs_sd_linear, rtol=1e-4, atol=1e-12)
 
 
 def test_linear_sd_equals_predict(couple_set):
