@@ -1,4 +1,5 @@
-"""`crossrate library ...`: validate, list, show, add, rename, remove and export couples.
+"""`crossrate library ...`: validate, list, show, add, rename and remove couples (export, import, diff and
+audit: their own modules, registered here).
 
 A thin face over crossrate.library: reading, validation, layering and the safe, comment-keeping edits
 all live there. Exit 0 on success, 2 with `path:line: ...` messages on stderr for bad input.
@@ -23,7 +24,7 @@ def register(subparsers) -> None:
 
     lib = subparsers.add_parser(
         "library",
-        help="validate, list, show, add, rename, remove and export library couples",
+        help="validate, list, show, add, rename, remove, import and export library couples",
         description="Work with the couple library: TOML files layered bundled -> group -> personal -> --library. "
         "The file format is described in libraries/README.md.",
     )
@@ -84,13 +85,10 @@ def register(subparsers) -> None:
     p.add_argument("couple_id", metavar="ID", help="id of the couple to remove")
     p.set_defaults(func=run_remove)
 
-    p = sub.add_parser("export", help="write the layered couples as CSV, JSON or a self-contained TOML library")
-    add_library_option(p)
-    p.add_argument("--format", choices=("csv", "json", "toml"), required=True, help="output form")
-    p.add_argument("--tag", action="append", default=[], metavar="TAG", help="only couples with this tag (repeatable)")
-    p.add_argument("--medium", metavar="NAME", help="only couples measured in this solvent (solvent key, e.g. water)")
-    p.add_argument("--out", metavar="FILE", help="write to FILE (must not exist) instead of standard output")
-    p.set_defaults(func=run_export)
+    from . import library_export_cmd, library_import_cmd
+
+    for module in (library_export_cmd, library_import_cmd):
+        module.register(sub)
 
 
 def _no_action(parser) -> int:
@@ -244,31 +242,6 @@ def run_show(args) -> int:
     print("\n".join(w for line in lines
                     for w in ([line] if line.startswith(("  from ", "  shadows ")) else
                               wrap_text(line, subsequent=" " * 18))))
-    return 0
-
-
-def run_export(args) -> int:
-    from ..library.couple_export import couple_record, export_toml, records_csv, records_json
-
-    cs = load_set(args)
-    couples = _selected(cs, args.tag, args.medium)
-    if args.out is not None:
-        from .output_file import check_out_path
-
-        check_out_path(args.out, can_force=False)
-    if args.format == "toml":
-        text = export_toml(couples, cs.scales)
-    elif args.format == "json":
-        text = records_json([couple_record(c) for c in couples])
-    else:
-        text = records_csv([couple_record(c) for c in couples])
-    if args.out is None:
-        sys.stdout.write(text)
-        return 0
-    from .output_file import write_out
-
-    write_out(args.out, text, force=False, can_force=False)
-    print(f"wrote {len(couples)} couples to {args.out}")
     return 0
 
 

@@ -1,5 +1,6 @@
 """The Couple record as stored in a library file (user units), and where it came from."""
 
+import datetime
 from dataclasses import MISSING, dataclass, field, fields
 
 
@@ -40,6 +41,7 @@ class Couple:
 
     E, E_sd in V on scale E_scale; k_self in M^-1 s^-1; k_self_log10_sd in log10 units; dH_self, lambda_in,
     lambda_total in kJ/mol; radius in angstrom; molar_mass in g/mol; ionic_strength in mol/L; temperature in K; E00 in eV.
+    doi: DOI of the source ("10.NNNN/suffix"); date: when the values were entered or last checked.
     """
 
     id: str
@@ -64,6 +66,8 @@ class Couple:
     bonds: tuple[BondSet, ...] = ()
     kappa_el: float | None = None
     molar_mass: float | None = None
+    doi: str | None = None
+    date: datetime.date | None = None
     notes: str = ""
     tags: tuple[str, ...] = ()
     verified: bool = False

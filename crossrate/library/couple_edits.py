@@ -138,6 +138,33 @@ def add_couple(path, couple: Couple, expected_sha256: str | None,
     return _writer(p, known_scales, raw, {couple.id}).write(new_text, expected_sha256)
 
 
+def put_couples(path, couples: list[Couple], expected_sha256: str | None,
+                known_scales: dict[str, PotentialScale] | None = None) -> str:
+    """Add several couples in one checked write: a couple whose id the file has rewrites that table (as
+    update_couple, its comments and unchanged lines kept), the others are appended in the order given.
+    expected_sha256=None creates the file (it must not exist yet). Returns the new sha256; raises as add_couple."""
+    p = Path(os.fspath(path))
+    for c in couples:
+        _check_id(c.id, p)
+    text = _read(p, expected_sha256)
+    if text is None:
+        text = _new_file_text(p)
+    raw = _raw(text)
+    defaults = _defaults(raw)
+    tables = raw.get("couple") if raw is not None and isinstance(raw.get("couple"), dict) else {}
+    present = set(TableEditor(text).index.couples)
+    new = []
+    for c in couples:
+        if c.id in present:
+            existing = tables.get(c.id)
+            values = couple_to_values(c, defaults, existing if isinstance(existing, dict) else {})
+            text = TableEditor(text).replace(c.id, values)
+        else:
+            new.append((c.id, couple_to_values(c, defaults)))
+    text = TableEditor(text).insert_many(new)
+    return _writer(p, known_scales, raw, {c.id for c in couples}).write(text, expected_sha256)
+
+
 def update_couple(path, couple: Couple, expected_sha256: str,
                   known_scales: dict[str, PotentialScale] | None = None) -> str:
     """Rewrite the table of couple.id to hold this couple's values (unchanged lines and comments kept)."""

@@ -21,7 +21,8 @@ RECORD_KEYS = ("id",) + tuple(s.name for s in FIELD_SPECS) + ("layer", "path", "
 
 
 def couple_record(c: Couple) -> dict:
-    """A JSON-ready dict of one couple (None where a field is absent; tags a list; bonds a list of dicts)."""
+    """A JSON-ready dict of one couple (None where a field is absent; tags a list; bonds a list of dicts; the
+    date as YYYY-MM-DD text)."""
     rec = {"id": c.id}
     for s in FIELD_SPECS:
         v = getattr(c, s.name)
@@ -29,6 +30,8 @@ def couple_record(c: Couple) -> dict:
             v = list(v)
         elif s.name == "bonds":
             v = [{"count": b.count, "delta_d": b.delta_d, "f_ox": b.f_ox, "f_red": b.f_red} for b in v]
+        elif s.name == "date" and v is not None:
+            v = v.isoformat()
         rec[s.name] = v
     o = c.origin
     rec["layer"] = o.layer if o else None
@@ -42,8 +45,18 @@ def records_json(records: list[dict]) -> str:
     return json.dumps(records, indent=2, allow_nan=False) + "\n"
 
 
+def tags_cell(tags) -> str:
+    """Tags in one CSV cell: joined by '; ', or as a TOML list when a tag holds ';', starts with '[' or has
+    spaces at either end (so `library import` reads back exactly the same tags)."""
+    tags = list(tags)
+    if any(";" in t or t != t.strip() or t.startswith("[") for t in tags):
+        return format_value(tags)
+    return "; ".join(tags)
+
+
 def records_csv(records: list[dict]) -> str:
-    """CSV text with a header row; tags joined by '; ', bonds in their TOML inline form, absent = empty."""
+    """CSV text with a header row; tags as tags_cell, bonds in their TOML inline form, absent = empty.
+    `crossrate library import` reads this form back."""
     buf = io.StringIO()
     w = csv.DictWriter(buf, fieldnames=list(RECORD_KEYS), lineterminator="\n")
     w.writeheader()
@@ -54,7 +67,7 @@ def records_csv(records: list[dict]) -> str:
             if v is None:
                 v = ""
             elif k == "tags":
-                v = "; ".join(v)
+                v = tags_cell(v)
             elif k == "bonds":
                 v = format_value(v) if v else ""
             elif isinstance(v, bool):

@@ -24,7 +24,8 @@ SCALE_KEY_CHARS = frozenset("ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxy
 class FieldSpec:
     """One field of a `[couple.<id>]` table.
 
-    kind: "text", "integer", "number", "boolean", "choice", "text list", "bonds", "medium" or "scale".
+    kind: "text", "integer", "number", "boolean", "choice", "text list", "bonds", "medium", "scale", "doi" or
+    "date".
     unit: unit text for labels and messages ("" when dimensionless or not a number).
     low, high: accepted range for numbers/integers (None: unbounded); low_open/high_open exclude the bound.
     library_default: the `[library]` table may give a default (medium, temperature, E_scale).
@@ -93,6 +94,10 @@ class FieldSpec:
             return "a solvent key of the solvent table"
         if self.kind == "scale":
             return "a potential scale key (built in, or defined under [library.scales])"
+        if self.kind == "doi":
+            return DOI_EXPECTED
+        if self.kind == "date":
+            return DATE_EXPECTED
         return "a valid value"
 
 
@@ -100,6 +105,9 @@ BONDS_EXPECTED = (
     "a list of inline tables {count = <whole number 1-100>, delta_d = <angstrom, -1 to 1>, "
     "f_ox = <N/m, >0 to 5000>, f_red = <N/m, >0 to 5000>}"
 )
+
+DOI_EXPECTED = 'a DOI "10.NNNN/suffix" in quotes, e.g. "10.1021/ja00000a000" (without https://doi.org/)'
+DATE_EXPECTED = "a date YYYY-MM-DD, not in the future (a TOML date such as 2024-05-17, or the same in quotes)"
 
 _S = FieldSpec
 #: Every couple field, in the order crossrate writes them (and documents them).
@@ -135,6 +143,8 @@ FIELD_SPECS: tuple[FieldSpec, ...] = (
     _S("molar_mass", "number", "g/mol", "molar mass of the couple's oxidized form (sets the electrode collision "
        "factor of k0)", low=1, high=100000),
     _S("source", "text", "", "citation of the values (author, journal, year), or 'invented'", required=True),
+    _S("doi", "doi", "", "DOI of the source, e.g. 10.1021/ja00000a000 (without https://doi.org/)"),
+    _S("date", "date", "", "date the values were entered or last checked against the source (YYYY-MM-DD)"),
     _S("notes", "text", "", "free notes"),
     _S("tags", "text list", "", "labels such as 'aqua' or 'spin-change'"),
     _S("verified", "boolean", "", "true once the values were checked against the primary source"),

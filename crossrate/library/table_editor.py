@@ -175,6 +175,24 @@ class TableEditor:
             text += nl
         return text + "".join(line + "\n" for line in self.render(couple_id, values))
 
+    def insert_many(self, tables: list[tuple[str, dict]]) -> str:
+        """Append several new tables at the end of the file, one blank line before each (as insert does)."""
+        if not tables:
+            return self.text
+        seen = set()
+        for cid, _ in tables:
+            if cid in self.index.couples:
+                raise TableEditError(f"couple {cid}: already in the file at line {self.index.couples[cid].line}; "
+                                     "expected a new id")
+            if cid in seen:
+                raise TableEditError(f"couple {cid}: given twice; expected each new id once")
+            seen.add(cid)
+        (first_id, first_values), rest = tables[0], tables[1:]
+        nl = "\r\n" if self.crlf else "\n"
+        parts = [self.insert(first_id, first_values)]
+        parts += [nl + "".join(line + "\n" for line in self.render(cid, values)) for cid, values in rest]
+        return "".join(parts)
+
     def replace(self, couple_id: str, values: dict) -> str:
         """Rewrite a table so it holds exactly `values`, changing only the lines that must change."""
         lines = self.text.split("\n")

@@ -7,6 +7,7 @@ about 150,000 times.
 """
 
 import math
+import re
 from dataclasses import dataclass
 from datetime import date, datetime, time
 from functools import lru_cache
@@ -17,6 +18,8 @@ from .line_index import IndexedOrigin, TableSpan
 from .schema import (
     BOND_FIELDS,
     BONDS_EXPECTED,
+    DATE_EXPECTED,
+    DOI_EXPECTED,
     FIELD_SPECS,
     FIELDS_BY_NAME,
     ID_CHARS,
@@ -235,6 +238,45 @@ def _set_checker(spec: FieldSpec):
     return check
 
 
+#: 10.<registrant, 4-9 digits, optionally with sub-numbers>/<suffix without spaces> (the DOI handbook's form).
+_DOI = re.compile(r"10\.\d{4,9}(?:\.\d+)*/\S+\Z")
+_ISO_DATE = re.compile(r"\d{4}-\d{2}-\d{2}\Z")
+
+
+def _doi_checker(spec: FieldSpec):
+    def check(v):
+        if type(v) is not str:
+            return _Bad(f"got {describe(v)}; expected {DOI_EXPECTED}")
+        if _DOI.match(v):
+            return v
+        low = v.strip().lower()
+        for prefix in ("https://doi.org/", "http://doi.org/", "https://dx.doi.org/", "http://dx.doi.org/", "doi:"):
+            if low.startswith(prefix) and _DOI.match(v.strip()[len(prefix):].strip()):
+                return _Bad(f'got {describe(v)}; expected the DOI alone: "{v.strip()[len(prefix):].strip()}"')
+        return _Bad(f"got {describe(v)}; expected {DOI_EXPECTED}")
+
+    return check
+
+
+def _date_checker(spec: FieldSpec):
+    def check(v):
+        if type(v) is str:
+            if not _ISO_DATE.match(v):
+                return _Bad(f"got {describe(v)}; expected {DATE_EXPECTED}")
+            try:
+                v = date.fromisoformat(v)
+            except ValueError as exc:
+                return _Bad(f"got {describe(v)} ({exc}); expected {DATE_EXPECTED}")
+        elif type(v) is not date:
+            return _Bad(f"got {describe(v)}; expected {DATE_EXPECTED}")
+        if v > date.today():
+            return _Bad(f"got {v.isoformat()}, which is in the future (today is {date.today().isoformat()}); "
+                        f"expected {DATE_EXPECTED}")
+        return v
+
+    return check
+
+
 _FACTORIES = {
     "number": _number_checker,
     "integer": _integer_checker,
@@ -245,6 +287,8 @@ _FACTORIES = {
     "bonds": _bonds_checker,
     "medium": _set_checker,
     "scale": _set_checker,
+    "doi": _doi_checker,
+    "date": _date_checker,
 }
 
 

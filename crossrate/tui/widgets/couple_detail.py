@@ -6,6 +6,7 @@ from typing import TYPE_CHECKING
 
 from rich.console import Group
 from rich.padding import Padding
+from rich.style import Style
 from rich.table import Table
 from rich.text import Text
 from textual.widgets import Static
@@ -55,7 +56,9 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
             v = "true" if v else "false"
         spec = FIELDS_BY_NAME.get(name)
         unit = f" {spec.unit}" if spec is not None and spec.unit and name != "bonds" else ""
-        fields.add_row(name, printable(f"{v}{unit}"))  # text from the file: never terminal controls
+        # text from the file: never terminal controls; a DOI (checked: no spaces or controls) is a link to the source
+        fields.add_row(name, Text(v, style=Style(link=f"https://doi.org/{v}")) if name == "doi"
+                       else printable(f"{v}{unit}"))
     parts = [t, fields]
     if lambda_lines:
         parts.append(Text("reorganization energy", style="bold"))
