@@ -59,6 +59,8 @@ def records_csv(records: list[dict]) -> str:
     `crossrate library import` reads this form back."""
     buf = io.StringIO()
     w = csv.DictWriter(buf, fieldnames=list(RECORD_KEYS), lineterminator="\n")
+    # csv quotes a cell holding "\n" but not one holding a lone "\r", which readers take for a line end
+    quoted = csv.DictWriter(buf, fieldnames=list(RECORD_KEYS), lineterminator="\n", quoting=csv.QUOTE_ALL)
     w.writeheader()
     for r in records:
         row = {}
@@ -73,7 +75,7 @@ def records_csv(records: list[dict]) -> str:
             elif isinstance(v, bool):
                 v = "true" if v else "false"
             row[k] = spreadsheet_safe(v)  # a name like =HYPERLINK(...) stays text
-        w.writerow(row)
+        (quoted if any("\r" in str(v) for v in row.values()) else w).writerow(row)
     return buf.getvalue()
 
 

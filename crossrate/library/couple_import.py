@@ -7,7 +7,8 @@ the units of the library format (V, M^-1 s^-1, angstrom, kJ/mol, M, K, eV, g/mol
 field out (the target file's [library] defaults then apply to medium, temperature and E_scale). Cells:
 numbers as written (1.5e8); charges as whole numbers; `verified` true/false; `tags` separated by ';' (or a
 TOML list ["a", "b"] when a tag holds a ';'); `bonds` in their TOML inline form; `date` as YYYY-MM-DD.
-Text cells are taken exactly as written (spaces kept).
+Text cells are taken exactly as written (spaces kept), less the apostrophe the export puts before a text
+a spreadsheet would take for a formula (=, +, -, @).
 
 Every problem of the file is reported at once as `file:line:column: couple <id>: field <name>: ...` and
 nothing is written when there is any; the whole import is one checked write of the safe writer (see
@@ -26,6 +27,7 @@ from ..errors import LibraryError, Problem
 from .couple import Couple
 from .couple_edits import put_couples
 from .schema import FIELDS_BY_NAME, closest, parse_field_text
+from .spreadsheet_cells import from_spreadsheet_cell
 from .toml_loads import loads
 from .toml_reader import read_library_file
 from .validation import ValidationContext, bad_id_message, validate_couple
@@ -186,7 +188,8 @@ def read_couples_csv(path, defaults: dict | None = None,
             problems.append(CellProblem(p, line, None, None, f"{len(cells)} cells; expected {len(header)}, one per "
                                         f"column of the header", None))
             continue
-        row = dict(zip(header, cells, strict=True))
+        # the apostrophe export puts before a text a spreadsheet would take for a formula is not part of it
+        row = dict(zip(header, map(from_spreadsheet_cell, cells), strict=True))
         cid = row["id"].strip()
         id_col = columns["id"]
         bad = bad_id_message(cid)

@@ -18,12 +18,27 @@ def _is_number(text: str) -> bool:
         return False
 
 
+def _needs_guard(text: str) -> bool:
+    # Apostrophes already in front count as part of the text: "'=x" is guarded too, so that
+    # from_spreadsheet_cell can tell a guard from an apostrophe the text itself begins with.
+    rest = text.lstrip("'")
+    return rest.startswith(_FORMULA_START) and not _is_number(rest)
+
+
 def spreadsheet_safe(cell):
-    """The cell as it may be written: a text beginning with = + - @ tab or CR gets a leading apostrophe
-    unless it is a plain number; anything that is not text is returned unchanged."""
-    if isinstance(cell, str) and cell.startswith(_FORMULA_START) and not _is_number(cell):
+    """The cell as it may be written: a text beginning with = + - @ tab or CR (after any apostrophes) gets a
+    leading apostrophe unless it is a plain number; anything that is not text is returned unchanged."""
+    if isinstance(cell, str) and _needs_guard(cell):
         return "'" + cell
     return cell
+
+
+def from_spreadsheet_cell(text: str) -> str:
+    """The text spreadsheet_safe was given, from the cell it wrote (the guard's apostrophe dropped):
+    `crossrate library import` reads an exported CSV back to exactly the same values."""
+    if text.startswith("'") and _needs_guard(text[1:]):
+        return text[1:]
+    return text
 
 
 def safe_row(cells) -> list:

@@ -21,6 +21,7 @@ from crossrate.library.couple import BondSet, Couple
 from crossrate.library.couple_export import couple_record, export_toml, records_csv
 from crossrate.library.couple_import import import_couples_csv, parse_tags_cell
 from crossrate.library.schema import FIELD_SPECS
+from crossrate.library.spreadsheet_cells import from_spreadsheet_cell, spreadsheet_safe
 from crossrate.library.toml_reader import read_library_file
 
 HEADER = "id,name,charge_ox,charge_red,E,radius,ionic_strength,source,tags,doi,date\n"
@@ -35,7 +36,7 @@ def _run(*argv):
 
 # --- the round trip ----------------------------------------------------------------------------------
 
-_TEXT = st.text(st.characters(blacklist_categories=("Cs", "Cc")) | st.sampled_from("\n\t,;\"'#[]="), max_size=30)
+_TEXT = st.text(st.characters(blacklist_categories=("Cs", "Cc")) | st.sampled_from("\n\t\r,;\"'#[]=+-@"), max_size=30)
 _NAME = _TEXT.filter(lambda s: s.strip())
 
 
@@ -111,6 +112,11 @@ def test_toml_to_csv_to_toml_loses_nothing(original):
                 x, y = getattr(a, spec.name), getattr(b, spec.name)
                 if isinstance(x, float):
                     assert math.copysign(1.0, x) == math.copysign(1.0, y) and x.hex() == y.hex()
+
+
+@given(st.text())
+def test_spreadsheet_guard_is_undone_on_import(text):
+    assert from_spreadsheet_cell(spreadsheet_safe(text)) == text
 
 
 def test_tags_cell_forms():
