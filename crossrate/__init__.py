@@ -65,6 +65,7 @@ _LAZY = {
     "PredictionTable": ("crossrate.services.results", "PredictionTable"),
     "UsedConditions": ("crossrate.services.results", "UsedConditions"),
     "WorkTerms": ("crossrate.services.results", "WorkTerms"),
+    "CarriedPotential": ("crossrate.services.results", "CarriedPotential"),
     "ScreenResult": ("crossrate.services.screening", "ScreenResult"),
     "RateMap": ("crossrate.services.rate_map", "RateMap"),
     "ProgressCallback": ("crossrate.services.progress", "ProgressCallback"),
@@ -94,7 +95,7 @@ __all__ = [
     "read_measured_csv", "read_series_csv", "read_partner_csv", "check_measured", "check_pair",
     "solve_k_self", "solve_potential", "solve_several", "fit_series",
     "estimate_lambda", "lambda_for_structure",
-    "Prediction", "PredictionTable", "UsedConditions", "WorkTerms", "ScreenResult", "RateMap", "ProgressCallback",
+    "Prediction", "PredictionTable", "UsedConditions", "WorkTerms", "CarriedPotential", "ScreenResult", "RateMap", "ProgressCallback",
     "MeasuredRow", "SeriesData", "CheckReport", "PairCheck", "KSelfSolution", "PotentialSolution", "SeriesFit",
     "LambdaBreakdown",
     "predict_k0", "rate_curves", "ElectrodeRate", "RateCurves",
@@ -158,7 +159,13 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
     from .services.prediction import predict
     from .services.progress import ProgressCallback
     from .services.rate_map import RateMap, rate_map
-    from .services.results import Prediction, PredictionTable, UsedConditions, WorkTerms
+    from .services.results import (
+        CarriedPotential,
+        Prediction,
+        PredictionTable,
+        UsedConditions,
+        WorkTerms,
+    )
     from .services.screening import ScreenResult, screen
     from .services.series_fit import SeriesFit, fit_series
     from .services.solving import KSelfSolution, PotentialSolution, solve_k_self, solve_potential

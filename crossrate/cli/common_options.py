@@ -65,7 +65,7 @@ def add_library_option(parser: argparse.ArgumentParser) -> None:
 
 
 def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: str = "the couples' own") -> None:
-    """--temperature, --ionic-strength, --medium, --allow-mixed-media, --Z, --no-diffusion."""
+    """--temperature, --ionic-strength, --medium, --allow-mixed-media, --allow-E-other-medium, --Z, --no-diffusion."""
     g = parser.add_argument_group("conditions")
     g.add_argument(
         "--temperature", type=finite_float, default=STANDARD_TEMPERATURE, metavar="K",
@@ -79,6 +79,11 @@ def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: s
     g.add_argument(
         "--allow-mixed-media", action="store_true",
         help="allow couples measured in different media (with a warning)",
+    )
+    g.add_argument(
+        "--allow-E-other-medium", action="store_true", dest="allow_E_other_medium",
+        help="use a formal potential measured in another medium as given (it cannot be carried between "
+        "solvents; the output says so); without it such a pair is refused",
     )
     g.add_argument(
         "--Z", type=positive_float, default=DEFAULT_Z, metavar="VALUE",
@@ -102,6 +107,7 @@ def conditions_from_args(args):
         Z=args.Z,
         diffusion=not args.no_diffusion,
         allow_mixed_media=args.allow_mixed_media,
+        allow_E_other_medium=getattr(args, "allow_E_other_medium", False),
     )
 
 

@@ -5,7 +5,9 @@ import argparse
 from .common_options import add_condition_options, add_format_option, add_library_option, seed_value
 from .help_format import CAUTION
 
-#: Seed of the Monte Carlo interval when --seed is not given, so the same command prints the same interval.
+#: Seed of the Monte Carlo interval when --seed is not given, so the same command prints the same interval;
+#: the same value as crossrate.services.prediction.DEFAULT_SEED (the API's default; tested), kept here so that
+#: building the parser imports no numpy.
 DEFAULT_SEED = 20261201
 DEFAULT_SAMPLES = 20000
 

@@ -41,6 +41,12 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
         ("Z (collision factor)", fmt_sci(c.Z), RATE_UNIT, ""),
         ("diffusion cap", "on" if c.diffusion else "off", "", "1/k_obs = 1/k_act + 1/k_D" if c.diffusion else ""),
     ]
+    potentials = []
+    for k, pot in enumerate(p.potentials, start=1):
+        unit = f"V {pot.E_scale}"
+        potentials.append((f"E{k} as given", f"{pot.E_given_V:+.4f}", unit, pot.couple))
+        note = pot.basis + (f"; SD {pot.E_sd_V * 1e3:.1f} mV" if pot.carried else "")
+        potentials.append((f"E{k} at these conditions", f"{pot.E_at_conditions_V:+.4f}", unit, note))
     driving = [
         (sym["dG0"], fmt_fixed(p.dG0_kJ_per_mol, 2), "kJ/mol", f"{fmt_fixed(p.dG0_eV, 3)} eV"),
         (f"{sym['dG0p']} (work-corrected)", fmt_fixed(p.dG0_prime_kJ_per_mol, 2), "kJ/mol",
@@ -89,6 +95,7 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
     ))
     return [
         ("Conditions used", conditions),
+        *([("Formal potentials", potentials)] if potentials else []),
         ("Driving force", driving),
         ("Reorganization energy and barrier", barrier),
         ("Work terms", work),

@@ -39,8 +39,10 @@ class BondSet:
 class Couple:
     """One redox couple Ox/Red, in the units of the library format.
 
-    E, E_sd in V on scale E_scale; k_self in M^-1 s^-1; k_self_log10_sd in log10 units; dH_self, lambda_in,
-    lambda_total in kJ/mol; radius in angstrom; molar_mass in g/mol; ionic_strength in mol/L; temperature in K; E00 in eV.
+    E, E_sd in V on scale E_scale; E_ionic_strength (ionic strength E was measured at; None: ionic_strength)
+    in mol/L; dE_dT (temperature coefficient of E) in mV/K; k_self in M^-1 s^-1; k_self_log10_sd in log10
+    units; dH_self, lambda_in, lambda_total in kJ/mol; radius in angstrom; molar_mass in g/mol; ionic_strength
+    in mol/L; temperature in K; E00 in eV.
     doi: DOI of the source ("10.NNNN/suffix"); date: when the values were entered or last checked.
     """
 
@@ -56,6 +58,8 @@ class Couple:
     temperature: float
     source: str
     E_sd: float | None = None
+    E_ionic_strength: float | None = None
+    dE_dT: float | None = None
     k_self: float | None = None
     k_self_log10_sd: float | None = None
     dH_self: float | None = None

@@ -28,7 +28,8 @@ class CoupleArrays:
     E_root_V: effective potential (excited state applied) on the couple's root scale, V.
     scale_root: root scale key per couple (couples compare only when their roots are equal).
     ln_k_self: ln of k_self in M^-1 s^-1 (NaN where absent); ln_k_self_sd: natural-log SD (NaN where absent).
-    E_sd_V: V (NaN where absent). dH_self_J: J/mol (NaN where absent). radius_m: m.
+    E_sd_V: V (NaN where absent). E_I0_M: ionic strength E was measured at, mol/L. dE_dT_V_per_K: temperature
+    coefficient of E, V/K (NaN where absent). dH_self_J: J/mol (NaN where absent). radius_m: m.
     I0_M, T0_K: conditions of the measurement. medium: solvent key per couple.
     lambda_in_J, lambda_total_J: J/mol (NaN where absent).
     """
@@ -42,6 +43,8 @@ class CoupleArrays:
     ln_k_self: np.ndarray
     ln_k_self_sd: np.ndarray
     E_sd_V: np.ndarray
+    E_I0_M: np.ndarray
+    dE_dT_V_per_K: np.ndarray
     dH_self_J: np.ndarray
     I0_M: np.ndarray
     T0_K: np.ndarray
@@ -159,6 +162,9 @@ class CoupleSet:
             ln_k_self=np.log(_opt(c.k_self for c in cs)),
             ln_k_self_sd=_opt(c.k_self_log10_sd for c in cs) * ln10,
             E_sd_V=_opt(c.E_sd for c in cs),
+            E_I0_M=np.array([c.ionic_strength if c.E_ionic_strength is None else c.E_ionic_strength for c in cs],
+                            dtype=float),
+            dE_dT_V_per_K=_opt(c.dE_dT for c in cs) * 1e-3,
             dH_self_J=_opt(c.dH_self for c in cs) * KJ,
             I0_M=np.array([c.ionic_strength for c in cs], dtype=float),
             T0_K=np.array([c.temperature for c in cs], dtype=float),

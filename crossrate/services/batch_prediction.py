@@ -9,12 +9,12 @@ from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
 from .arguments import positions, require_conditions, require_couple_set
+from .carried_potentials import potentials_at
 from .conditions import Conditions
 from .couple_lambda import lambda_columns
 from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
 from .results import PredictionTable
 from .self_exchange import self_exchange_at
-from .uncertainty import DEFAULT_E_SD_V
 
 LN10 = float(np.log(10.0))
 
@@ -92,6 +92,24 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
         allc = np.arange(len(cs))
         se = self_exchange_at(cs, allc, T, I, eps, ln_Z, medium=cond.medium)
         lnk_ox, sd_ox, lnk_red, sd_red = se.ln_k[ox], se.ln_k_sd[ox], se.ln_k[red], se.ln_k_sd[red]
+    # Formal potentials carried to each pair's conditions (same per-couple carrying as predict()).
+    pair_medium_E = cond.medium if cond.medium is not None else a.medium[ox]
+    if groups is None and not (per_pair_I or per_pair_medium):
+        pa_all = potentials_at(cs, np.arange(len(cs)), T, I, eps, medium=cond.medium)
+        E_ox, sE1, E_red, sE2 = pa_all.E_root_V[ox], pa_all.E_sd_V[ox], pa_all.E_root_V[red], pa_all.E_sd_V[red]
+        other_E = pa_all.other_medium[ox] | pa_all.other_medium[red]
+        E_by_group = [pa_all.E_root_V]
+    else:
+        I_pair = np.broadcast_to(np.nan_to_num(np.asarray(I, dtype=float), nan=0.0), (n,))
+        pa_ox = potentials_at(cs, ox, T, I_pair, eps, medium=pair_medium_E)
+        pa_red = potentials_at(cs, red, T, I_pair, eps, medium=pair_medium_E)
+        E_ox, sE1, E_red, sE2 = pa_ox.E_root_V, pa_ox.E_sd_V, pa_red.E_root_V, pa_red.E_sd_V
+        other_E = pa_ox.other_medium | pa_red.other_medium
+        E_by_group = None
+    if not cond.allow_E_other_medium:
+        problem[other_E & (problem == "")] = (
+            "a potential measured in another medium (not transferable; allow with --allow-E-other-medium)"
+        )
     # kappa_el per couple: lambda_ii is read from k_ii / (kappa_el Z) and k12 carries (kappa11 kappa22)^(1/2).
     ln_kap = np.log(lambda_columns(cs).kappa_el)
     no_rate = ~(np.isfinite(lnk_ox) & np.isfinite(lnk_red))
@@ -99,8 +117,8 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
 
     def run(dE1=0.0, dE2=0.0, d1=0.0, d2=0.0):
         return cross_rate(
-            a.E_root_V[ox] + dE1,
-            a.E_root_V[red] + dE2,
+            E_ox + dE1,
+            E_red + dE2,
             a.z_ox[ox],
             a.z_red[ox],
             a.z_ox[red],
@@ -123,15 +141,19 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
         res = run()
         sd = None
         if uncertainty:
-            sE1 = np.where(np.isfinite(a.E_sd_V[ox]), a.E_sd_V[ox], DEFAULT_E_SD_V)
-            sE2 = np.where(np.isfinite(a.E_sd_V[red]), a.E_sd_V[red], DEFAULT_E_SD_V)
             if groups is None and not (per_pair_I or per_pair_medium):
                 groups = [PairGroup(np.arange(n), float(I), cond.medium or "", float(eps), float(visc))]
                 lnk_by_group = [se.ln_k]
             if groups is not None:
                 # Same central differences on the core fast path (rate_grid), one set of conditions per group.
+                if E_by_group is None:
+                    E_by_group = [
+                        potentials_at(cs, np.arange(len(cs)), T, g.I_M, g.eps_r,
+                                      medium=g.medium if cond.medium is None else cond.medium).E_root_V
+                        for g in groups
+                    ]
                 sd = linear_sd_grouped(cs, ox, red, groups, lnk_by_group, (sE1, sE2, sd_ox, sd_red), T, ln_Z,
-                                       cond.diffusion) / LN10
+                                       cond.diffusion, E_by_group) / LN10
             else:
                 var = np.zeros(n)
                 for k, (h, s) in enumerate(((1e-4, sE1), (1e-4, sE2), (1e-3, sd_ox), (1e-3, sd_red))):

@@ -17,7 +17,10 @@ Z_RANGE = (1e9, 1e13)
 @dataclass(frozen=True)
 class Conditions:
     """Target conditions. temperature_K in K, ionic_strength_M in mol/L (None: the couples' own when they
-    agree), medium a solvent key (None: the couples' own), Z in M^-1 s^-1, diffusion: apply the cap."""
+    agree), medium a solvent key (None: the couples' own), Z in M^-1 s^-1, diffusion: apply the cap.
+    allow_mixed_media: couples measured in different media may react (k_self carried to the medium);
+    allow_E_other_medium: a potential measured in another medium than the target's is used as given (not
+    carried; the outputs say so) instead of refusing the pair."""
 
     temperature_K: float = STANDARD_TEMPERATURE
     ionic_strength_M: float | None = None
@@ -25,6 +28,7 @@ class Conditions:
     Z: float = DEFAULT_Z
     diffusion: bool = True
     allow_mixed_media: bool = False
+    allow_E_other_medium: bool = False
 
     def __post_init__(self):
         T = self.temperature_K

@@ -84,10 +84,11 @@ def carry_grouped(cs: CoupleSet, ox, red, groups: list[PairGroup], T_K: float, l
     return (*out, per_group)
 
 
-def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, ln_Z, diffusion):
+def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, ln_Z, diffusion, E_by_group):
     """First-order SD of ln k_obs per pair by central differences (uncertainty.linear_sd, vectorized).
 
-    sds: (sE1, sE2, s_lnk11, s_lnk22) per pair; ln_k_by_group: ln k_self per couple for each group.
+    sds: (sE1, sE2, s_lnk11, s_lnk22) per pair; ln_k_by_group: ln k_self per couple for each group;
+    E_by_group: potential per couple carried to each group's conditions (V, root scale).
     In the cross relation E1 and E2 enter only as E1 - E2 (Delta G deg), and ln k11, ln k22 only as their
     sum (in ln k12 and in ln f12), so d/dE2 = -d/dE1 and d/d ln k22 = d/d ln k11: two derivatives give
     all four slopes. The oxidant's inputs are shifted on a doubled couple list (oxidant copies first,
@@ -96,7 +97,6 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     a = cs.arrays
     N = len(cs)
     var = np.zeros(ox.shape[0])
-    E2 = np.concatenate([a.E_root_V, a.E_root_V])
     z_ox = np.concatenate([a.z_ox, a.z_ox])
     z_red = np.concatenate([a.z_red, a.z_red])
     r = np.concatenate([a.radius_m, a.radius_m])
@@ -104,8 +104,9 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     ln_kap2 = np.concatenate([ln_kap, ln_kap]) if np.any(ln_kap != 0.0) else None
     sE = np.hypot(sds[0], sds[1])
     sK = np.hypot(sds[2], sds[3])
-    for g, lnk in zip(groups, ln_k_by_group, strict=True):
+    for g, lnk, E_g in zip(groups, ln_k_by_group, E_by_group, strict=True):
         o, rr = ox[g.rows], red[g.rows] + N
+        E2 = np.concatenate([E_g, E_g])
         k2 = np.concatenate([lnk, lnk])
         # k_D does not move with E or k_self: one screened-diffusion table serves the four shifted evaluations.
         table = screened_debye_table(z_ox, r, z_red, r, T_K, g.I_M, g.eps_r) \

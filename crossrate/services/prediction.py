@@ -12,13 +12,16 @@ from ..errors import ConditionsError, ScienceError
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
 from .arguments import require_conditions, require_couple_set, require_id, require_number
+from .carried_potentials import basis_text, other_medium_message, potential_warnings, potentials_at
 from .conditions import Conditions
 from .prediction_warnings import pair_warnings
-from .results import Prediction, UsedConditions, WorkTerms
+from .results import CarriedPotential, Prediction, UsedConditions, WorkTerms
 from .self_exchange import DEFAULT_K_SELF_LOG10_SD, self_exchange_at
 from .uncertainty import DEFAULT_E_SD_V, InputSpread, linear_sd, monte_carlo
 
 LN10 = float(np.log(10.0))
+#: Seed of the Monte Carlo interval when none is given (the CLI's default too), so a prediction is reproducible.
+DEFAULT_SEED = 20261201
 
 REGIME_EXPLANATIONS = {
     "endergonic": "uphill (Delta G deg' > 0): the rate is limited by the unfavourable equilibrium",
@@ -102,6 +105,37 @@ def _require_same_scale(cs: CoupleSet, ox: Couple, red: Couple):
     return E1, E2
 
 
+def carry_potentials(cs: CoupleSet, ox: Couple, red: Couple, rc: ResolvedConditions, cond: Conditions):
+    """PotentialsAt of (oxidant, reductant) at the resolved conditions; ConditionsError when a potential was
+    measured in another medium and the conditions do not allow using it as measured."""
+    idx = cs.index_of([ox.id, red.id])
+    pa = potentials_at(cs, idx, rc.temperature_K, rc.ionic_strength_M, rc.eps_r, medium=rc.medium)
+    if not cond.allow_E_other_medium:
+        for c, other in zip((ox, red), pa.other_medium.tolist(), strict=True):
+            if other:
+                raise ConditionsError(other_medium_message(c, rc.medium))
+    return pa
+
+
+def potential_records(ox: Couple, red: Couple, pa, rc: ResolvedConditions) -> tuple[CarriedPotential, ...]:
+    """The CarriedPotential records of the oxidant and the reductant."""
+    out = []
+    for k, c in enumerate((ox, red)):
+        dI, dT = float(pa.dE_ionic_V[k]), float(pa.dE_temperature_V[k])
+        out.append(CarriedPotential(
+            couple=c.id,
+            E_scale=c.E_scale,
+            E_given_V=c.E,
+            E_at_conditions_V=c.E + dI + dT,
+            ionic_correction_V=dI,
+            temperature_correction_V=dT,
+            E_sd_V=float(pa.E_sd_V[k]),
+            carried=not bool(pa.other_medium[k]),
+            basis=basis_text(c, pa, k, rc.temperature_K, rc.ionic_strength_M, rc.medium),
+        ))
+    return tuple(out)
+
+
 def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
     """(evaluate(dE1, dE2, dlnk11, dlnk22) -> CrossRateArrays, SelfExchangeAt of both couples)."""
     a = cs.arrays
@@ -143,7 +177,7 @@ def predict(
     reductant: str,
     conditions: Conditions | None = None,
     samples: int = 20000,
-    seed: int | None = None,
+    seed: int | None = DEFAULT_SEED,
 ) -> Prediction:
     """Predict k12 for Ox1 + Red2 -> Red1 + Ox2 (Marcus cross relation, work terms, diffusion cap).
 
@@ -153,7 +187,7 @@ def predict(
         reductant: id of couple 2, whose reduced form gives it.
         conditions: target conditions (default: 298.15 K, the couples' own I and medium, Z = 1e11 M^-1 s^-1).
         samples: Monte Carlo draws for the 95 % interval (0 skips it, otherwise at least 2); seed: RNG seed
-            for reproducibility.
+            (default DEFAULT_SEED, the CLI's, so the same call gives the same interval; None draws a fresh one).
 
     Returns:
         Prediction (kJ/mol, log10 M^-1 s^-1). Raises UnknownCoupleError, ConditionsError or ScienceError.
@@ -172,7 +206,9 @@ def predict(
         raise ConditionsError(f"samples {samples!r}: expected 0 (no interval) or at least 2 Monte Carlo draws")
     ox, red = couple_set[oxidant], couple_set[reductant]
     rc = resolve_conditions(ox, red, cond)
-    E1, E2 = _require_same_scale(couple_set, ox, red)
+    _require_same_scale(couple_set, ox, red)
+    pa = carry_potentials(couple_set, ox, red, rc, cond)
+    E1, E2 = (float(e) for e in pa.E_root_V)
     i_ox, i_red = (int(i) for i in couple_set.index_of([oxidant, reductant]))
     evaluate, se = _pair_model(couple_set, i_ox, i_red, E1, E2, rc)
     for r in se.reason:
@@ -182,8 +218,8 @@ def predict(
     res = evaluate()
     a = couple_set.arrays
     spread = InputSpread(
-        E1_V=float(a.E_sd_V[i_ox]) if np.isfinite(a.E_sd_V[i_ox]) else DEFAULT_E_SD_V,
-        E2_V=float(a.E_sd_V[i_red]) if np.isfinite(a.E_sd_V[i_red]) else DEFAULT_E_SD_V,
+        E1_V=float(pa.E_sd_V[0]),
+        E2_V=float(pa.E_sd_V[1]),
         ln_k11=float(se.ln_k_sd[0]),
         ln_k22=float(se.ln_k_sd[1]),
     )
@@ -210,7 +246,11 @@ def predict(
         if se.estimated[k] or se.description(k)
     )
     regime = regime_name(res.regime)
-    warnings = rc.warnings + pair_warnings(ox, red, rc, res, estimated, defaulted)
+    warnings = (
+        rc.warnings
+        + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium)
+        + pair_warnings(ox, red, rc, res, estimated, defaulted)
+    )
 
     def f(x):
         return float(np.asarray(x))
@@ -257,6 +297,7 @@ def predict(
         kappa_el12=float(np.exp(f(res.ln_kappa12))),
         oxidant_provenance=ox.provenance,
         reductant_provenance=red.provenance,
+        potentials=potential_records(ox, red, pa, rc),
     )
 
 

@@ -18,6 +18,7 @@ from ..core.solvents import get_solvent
 from ..errors import ConditionsError
 from ..library.couple_set import CoupleSet
 from .arguments import require_conditions, require_couple_set
+from .carried_potentials import potentials_at
 from .conditions import Conditions
 from .progress import ProgressCallback, report
 from .results import json_safe
@@ -37,7 +38,9 @@ class RateMap:
     None; log10_k_obs: read-only (n x n) float array of log10(M^-1 s^-1), NaN where the pair cannot be
     computed. The diagonal holds each couple's self-exchange rate at the map's conditions (capped by
     diffusion like any pair). temperature_K (K), ionic_strength_M (mol/L, None: each couple's own), Z
-    (M^-1 s^-1), diffusion: the conditions used.
+    (M^-1 s^-1), diffusion: the conditions used. Formal potentials are carried to the map's conditions as in
+    predict(); E_not_carried: couples whose potential was measured in another medium and used as given
+    (allow_E_other_medium; without it their rows and columns are NaN).
     """
 
     ids: tuple[str, ...]
@@ -50,6 +53,7 @@ class RateMap:
     diffusion: bool
     #: "invented", "unverified" or "verified" for each couple of `ids`.
     provenance: tuple[str, ...] = ()
+    E_not_carried: tuple[str, ...] = ()
 
     def __len__(self) -> int:
         return len(self.ids)
@@ -77,6 +81,7 @@ class RateMap:
                     "Z": self.Z,
                     "diffusion": self.diffusion,
                 },
+                "E_not_carried": list(self.E_not_carried),
                 "rows": "oxidant",
                 "columns": "reductant",
                 "log10_k_obs": self.log10_k_obs.tolist(),
@@ -141,13 +146,18 @@ def rate_map(
     T = float(cond.temperature_K)
     ln_Z = float(np.log(cond.Z))
     done = 0
+    not_carried: list[str] = []
     report(progress, 0, n)
     for (medium, _root, I), pos in _groups(couple_set, idx, cond).items():
         sol = get_solvent(medium)
         eps, visc = float(sol.permittivity(T)), float(sol.viscosity_Pa_s(T))
         members = idx[pos]
         se = self_exchange_at(couple_set, members, T, I, eps, ln_Z, medium=medium)
-        ok = np.isfinite(se.ln_k)
+        pa = potentials_at(couple_set, members, T, I, eps, medium=medium)
+        if cond.allow_E_other_medium:
+            not_carried.extend(a.ids[i] for i in members[pa.other_medium].tolist())
+        ok = np.isfinite(se.ln_k) & (cond.allow_E_other_medium | ~pa.other_medium)
+        E = pa.E_root_V[ok]
         ln_kap = np.log(se.kappa_el)  # non-adiabatic couples: as cross_rate's ln_kappa11 / ln_kappa22
         cols = pos[ok]
         m = members[ok]
@@ -157,15 +167,15 @@ def rate_map(
         for s in range(0, m.size, ROWS_PER_STEP):
             r = slice(s, s + ROWS_PER_STEP)
             grid = ln_k_obs_grid(
-                a.E_root_V[m[r]], a.z_ox[m[r]], a.z_red[m[r]], a.radius_m[m[r]], se.ln_k[ok][r],
-                a.E_root_V[m], a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok],
+                E[r], a.z_ox[m[r]], a.z_red[m[r]], a.radius_m[m[r]], se.ln_k[ok][r],
+                E, a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok],
                 T, I, eps, visc, ln_Z, diffusion=cond.diffusion,
                 ln_kappa1=ln_kap[ok][r], ln_kappa2=ln_kap[ok], debye_table=table,
             )
             out[np.ix_(cols[r], cols)] = grid.ln_k_obs / LN10
             done += int(cols[r].size)
             report(progress, done, n)
-        if cols.size < pos.size:  # couples without self-exchange data: their rows stay NaN
+        if cols.size < pos.size:  # couples without self-exchange data (or a usable E): their rows stay NaN
             done += int(pos.size - cols.size)
             report(progress, done, n)
     out.setflags(write=False)
@@ -182,4 +192,5 @@ def rate_map(
         ionic_strength_M=None if cond.ionic_strength_M is None else float(cond.ionic_strength_M),
         Z=float(cond.Z),
         diffusion=bool(cond.diffusion),
+        E_not_carried=tuple(not_carried),
     )

@@ -52,6 +52,26 @@ class WorkTerms(_Record):
 
 
 @dataclass(frozen=True)
+class CarriedPotential(_Record):
+    """A couple's formal potential as given and at the prediction's conditions (V, on the couple's E_scale).
+
+    E_given_V: the library value (ground state); E_at_conditions_V: after the corrections;
+    ionic_correction_V, temperature_correction_V: the two corrections; E_sd_V: SD used in the interval, V;
+    carried: False when E was measured in another medium and used as given; basis: how, in words.
+    """
+
+    couple: str
+    E_scale: str
+    E_given_V: float
+    E_at_conditions_V: float
+    ionic_correction_V: float
+    temperature_correction_V: float
+    E_sd_V: float
+    carried: bool
+    basis: str
+
+
+@dataclass(frozen=True)
 class Prediction(_Record):
     """One cross-rate prediction for Ox1 + Red2 -> Red1 + Ox2 (oxidant = couple 1, reductant = couple 2).
 
@@ -60,7 +80,8 @@ class Prediction(_Record):
     dG_act_kJ_per_mol is the Marcus barrier w12 + (lambda12/4)(1 + dG0'/lambda12)^2, so that
     k_act = kappa_el12 Z exp(-dG_act/RT); kappa_el12 = (kappa11 kappa22)^(1/2) is the pair's electronic
     transmission factor (1 when both couples are adiabatic; lambda11, lambda22 are read with kappa_el Z).
-    log10_k_obs_sd_mc is None when fewer than two Monte Carlo draws were made.
+    log10_k_obs_sd_mc is None when fewer than two Monte Carlo draws were made. potentials: the oxidant's and
+    the reductant's formal potential as given and at these conditions (CarriedPotential).
     """
 
     oxidant: str
@@ -96,6 +117,7 @@ class Prediction(_Record):
     #: How far each couple's values can be trusted: "invented" (made-up), "unverified" or "verified".
     oxidant_provenance: str = ""
     reductant_provenance: str = ""
+    potentials: tuple[CarriedPotential, ...] = ()
 
     @property
     def k_obs(self) -> float:

@@ -1,6 +1,7 @@
 """The cross reaction of an unknown couple with a known partner, set up once for the solvers.
 
-Holds the resolved conditions, both couples' potentials on their common root scale, charges, radii, the
+Holds the resolved conditions, both couples' potentials on their common root scale (carried to the
+conditions as in predict(), crossrate.services.carried_potentials), charges, radii, the
 partner's self-exchange rate at the conditions and the pair's diffusion limit, and evaluates the full
 cross relation (f12 and work terms included, crossrate.core.cross_rate) for trial values of the unknown's
 potential and self-exchange rate.
@@ -16,11 +17,11 @@ from ..core.cross_rate import CrossRateArrays, cross_rate
 from ..errors import ConditionsError, ScienceError
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
+from .carried_potentials import potential_warnings
 from .conditions import Conditions
-from .prediction import ResolvedConditions, resolve_conditions
+from .prediction import ResolvedConditions, carry_potentials, resolve_conditions
 from .results import UsedConditions
 from .self_exchange import self_exchange_at
-from .uncertainty import DEFAULT_E_SD_V
 
 LN10 = math.log(10.0)
 ROLES = ("oxidant", "reductant", "auto")
@@ -49,6 +50,8 @@ class PairSetup:
     #: ln kappa_el of the unknown and of the partner (0 for adiabatic couples).
     ln_kappa_unknown: float = 0.0
     ln_kappa_partner: float = 0.0
+    #: Correction carrying the unknown's library potential to the conditions (ionic strength, temperature), V.
+    E_unknown_shift: float = 0.0
 
     @property
     def RT(self) -> float:
@@ -89,7 +92,7 @@ class PairSetup:
     def to_own_scale(self, E_root: float, registry) -> float:
         """A root-scale effective potential of the unknown as its library field E on its own E_scale, V."""
         _, offset = registry.resolve(self.unknown.E_scale)
-        return E_root - offset - (self.unknown.effective_E - self.unknown.E)
+        return E_root - offset - (self.unknown.effective_E - self.unknown.E) - self.E_unknown_shift
 
     def used_conditions(self) -> UsedConditions:
         rc = self.rc
@@ -139,17 +142,18 @@ def setup_pair(
     )
     if se.reason[1]:
         raise ScienceError(f"partner {se.reason[1]}; the partner's self-exchange rate is needed")
-    a = couple_set.arrays
-
-    def e_sd(i):
-        return float(a.E_sd_V[i]) if np.isfinite(a.E_sd_V[i]) else DEFAULT_E_SD_V
+    pa = carry_potentials(couple_set, ox, red, rc, cond)
+    k_u, k_p = (0, 1) if role == "oxidant" else (1, 0)
+    shift_u = float(pa.dE_ionic_V[k_u] + pa.dE_temperature_V[k_u])
+    notes = rc.warnings + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium)
 
     setup = PairSetup(
         unknown=u, partner=p, role=role, role_reason=reason, rc=rc,
-        E_unknown=Eu, E_partner=Ep, E_unknown_sd=e_sd(i_u), E_partner_sd=e_sd(i_p),
+        E_unknown=float(pa.E_root_V[k_u]), E_partner=float(pa.E_root_V[k_p]),
+        E_unknown_sd=float(pa.E_sd_V[k_u]), E_partner_sd=float(pa.E_sd_V[k_p]),
         ln_k_partner=float(se.ln_k[1]), ln_k_partner_sd=float(se.ln_k_sd[1]),
         ln_k_unknown=float(se.ln_k[0]), ln_k_unknown_sd=float(se.ln_k_sd[0]),
-        ln_k_diff=float("nan"), warnings=rc.warnings,
+        ln_k_diff=float("nan"), warnings=notes, E_unknown_shift=shift_u,
         ln_kappa_unknown=float(np.log(se.kappa_el[0])), ln_kappa_partner=float(np.log(se.kappa_el[1])),
     )
     # k_D depends only on radii, charges and solvent, not on E or k_self: evaluate once with placeholders.

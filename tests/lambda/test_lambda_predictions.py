@@ -40,7 +40,7 @@ def test_single_and_batch_paths_agree_for_estimated_couples(lambda_set, conditio
 
 def test_single_and_batch_paths_agree_across_solvents(lambda_set):
     # Mixed media with a chosen medium: measured couples are carried to acetonitrile, estimates use its Pekar.
-    cond = Conditions(medium="acetonitrile", allow_mixed_media=True)
+    cond = Conditions(medium="acetonitrile", allow_mixed_media=True, allow_E_other_medium=True)
     pairs = [("meas_w_plain", "meas_mecn"), ("meas_mecn", "est_lin"), ("est_total", "meas_mecn")]
     ox, red = zip(*pairs, strict=True)
     table = predict_many(lambda_set, list(ox), list(red), cond)
@@ -75,7 +75,7 @@ def test_prediction_names_the_estimate_and_its_uncertainty(lambda_set):
 
 
 def test_solvent_carrying_is_named_in_the_prediction(lambda_set):
-    cond = Conditions(medium="acetonitrile", allow_mixed_media=True)
+    cond = Conditions(medium="acetonitrile", allow_mixed_media=True, allow_E_other_medium=True)
     p = predict(lambda_set, "meas_w_plain", "meas_mecn", cond, samples=0)
     assert len(p.estimated) == 1 and "carried from water to acetonitrile" in p.estimated[0]
     assert "Pekar" in p.estimated[0]

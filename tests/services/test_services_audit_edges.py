@@ -181,7 +181,8 @@ def test_solve_round_trip_across_media_matches_predict():
         _c("w-ox", 1, 0.60, 1e5, lambda_in=40.0),
         _c("mecn-red", 0, 0.0, 1e6, medium="acetonitrile"),
     ])
-    cond = Conditions(medium="acetonitrile", allow_mixed_media=True, ionic_strength_M=0.1, diffusion=False)
+    cond = Conditions(medium="acetonitrile", allow_mixed_media=True, allow_E_other_medium=True, ionic_strength_M=0.1,
+                      diffusion=False)
     p = predict(cs, "w-ox", "mecn-red", cond, samples=0)
     # The water couple's k_self is carried to acetonitrile (Pekar rescaling of its outer-sphere lambda); the
     # solver must use the same carried partner rate, or the round trip misses the unknown's k_self.

@@ -19,8 +19,14 @@ def test_unknown_id_suggests_closest(couple_set):
 def test_mixed_media_refused_unless_allowed(couple_set):
     with pytest.raises(ConditionsError, match="different media"):
         predict(couple_set, "hl-iron-a", "hl-mecn-h")
-    p = predict(couple_set, "hl-iron-a", "hl-mecn-h", Conditions(medium="water", allow_mixed_media=True), samples=0)
+    # A potential measured in acetonitrile does not transfer to water: refused until allowed explicitly.
+    with pytest.raises(ConditionsError, match="hl-mecn-h: E was measured in acetonitrile"):
+        predict(couple_set, "hl-iron-a", "hl-mecn-h", Conditions(medium="water", allow_mixed_media=True))
+    cond = Conditions(medium="water", allow_mixed_media=True, allow_E_other_medium=True)
+    p = predict(couple_set, "hl-iron-a", "hl-mecn-h", cond, samples=0)
     assert any("mixed media" in w for w in p.warnings)
+    assert any(w.startswith("hl-mecn-h: E was not carried") for w in p.warnings)
+    assert [pot.carried for pot in p.potentials] == [True, False]
 
 
 def test_unrelated_scales_refused(couple_set):

@@ -52,7 +52,7 @@ def test_some_cells_are_not_computable(couple_set):
 def test_medium_restricts_and_mixed_media_computes_in_one_medium(couple_set):
     water = rate_map(couple_set, conditions=Conditions(medium="water"))
     assert set(water.media) == {"water"} and water.medium == "water"
-    mixed_cond = Conditions(medium="water", allow_mixed_media=True)
+    mixed_cond = Conditions(medium="water", allow_mixed_media=True, allow_E_other_medium=True)
     mixed = rate_map(couple_set, conditions=mixed_cond)
     assert "hl-mecn-h" in mixed.ids
     expected = predict(couple_set, "hl-iron-a", "hl-mecn-h", mixed_cond, samples=0).log10_k_obs

@@ -46,6 +46,8 @@ def prediction_text(p: Prediction, unit: str, note: str = "") -> Text:
     line("conditions", f"{c.temperature_K:g} K, I = {c.ionic_strength_M:g} M, {c.medium}")
     line("", f"eps {c.relative_permittivity:.2f}, eta {c.viscosity_mPa_s:.3g} mPa s, n {c.refractive_index:.3f}")
     line("", f"Z = {c.Z:.2g} {K_UNIT}, diffusion cap {'on' if c.diffusion else 'off'}")
+    for k, pot in enumerate(p.potentials, start=1):
+        line(f"E{k}", f"{pot.E_at_conditions_V:+.3f} V {pot.E_scale} here (given {pot.E_given_V:+.3f}): {pot.basis}")
     line("ΔG°", energy_text(p.dG0_kJ_per_mol, unit))
     line("ΔG°'", energy_text(p.dG0_prime_kJ_per_mol, unit) + "  (work-corrected)")
     line("K12", f"{rate_text(p.log10_K12)}  (log10 {p.log10_K12:.2f})")
