@@ -60,6 +60,9 @@ _LAZY = {
     "scan_rate_series": ("crossrate.services.voltammogram", "scan_rate_series"),
     "CvTrace": ("crossrate.services.voltammogram", "CvTrace"),
     "ScanRateSeries": ("crossrate.services.voltammogram", "ScanRateSeries"),
+    "check_electrode": ("crossrate.services.electrode_check", "check_electrode"),
+    "read_peak_csv": ("crossrate.services.electrode_check", "read_peak_csv"),
+    "ElectrodeCheck": ("crossrate.services.electrode_check", "ElectrodeCheck"),
     # result records
     "Prediction": ("crossrate.services.results", "Prediction"),
     "PredictionTable": ("crossrate.services.results", "PredictionTable"),
@@ -100,6 +103,7 @@ __all__ = [
     "LambdaBreakdown",
     "predict_k0", "rate_curves", "ElectrodeRate", "RateCurves",
     "CvSetup", "simulate_voltammogram", "scan_rate_series", "CvTrace", "ScanRateSeries",
+    "check_electrode", "read_peak_csv", "ElectrodeCheck",
     "CrossrateError", "Problem", "LibraryError", "UnknownCoupleError", "ConditionsError", "ScienceError",
     "ConflictError", "InputFileError",
 ]  # fmt: skip
@@ -144,6 +148,7 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
     from .library.couple_set import CoupleSet
     from .services.batch_prediction import predict_many
     from .services.conditions import Conditions
+    from .services.electrode_check import ElectrodeCheck, check_electrode, read_peak_csv
     from .services.electrode_kinetics import RateCurves, rate_curves
     from .services.electrode_rate import ElectrodeRate, predict_k0
     from .services.lambda_estimate import LambdaBreakdown, lambda_for_structure

@@ -61,6 +61,10 @@ def register(subparsers) -> None:
 
     register_cv(sub, _add_kinetics_source)
 
+    from .electrode_check_cmd import register as register_check
+
+    register_check(sub, _add_common)
+
 
 def _add_common(p) -> None:
     co.add_library_option(p)

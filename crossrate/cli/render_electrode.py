@@ -117,3 +117,41 @@ def cv_lines(series, prediction=None) -> list[str]:
     out += ["", f"voltammogram at {t.scan_rate_V_s:g} V/s (current / uA against E - E0' / V):"]
     out += text_plot(t.E_V, t.current_uA)
     return out
+
+
+def check_lines(r, setup=None) -> list[str]:
+    """A measured k0 or peak separations against the prediction (r: services.electrode_check.ElectrodeCheck)."""
+    p = r.prediction
+    lo, hi = p.log10_k0_95
+    out = [f"k0 of {r.couple}: measured against predicted ({r.source})", "",
+           f"  predicted  {_pow10(p.log10_k0):>10} cm/s   95 % [{_pow10(lo)}, {_pow10(hi)}]"]
+    if r.rows:
+        if setup is not None:
+            out += wrap_text(f"working curve: alpha = {setup.alpha:g}, D_ox = {setup.D_ox_cm2_s:.3g}, "
+                             f"D_red = {setup.D_red_cm2_s:.3g} cm^2/s, {setup.temperature_K:g} K", indent="  ",
+                             subsequent="    ")
+        out += ["", f"{'line':>6}{'v / V s^-1':>12}{'dEp / mV':>10}{'psi':>9}{'k0 / cm s^-1':>15}"]
+        for row in r.rows:
+            if row.bound == "lower":
+                k0 = f">= {_pow10(row.log10_k0)}"
+                psi = ">= 20"
+            else:
+                k0 = f"{_pow10(row.log10_k0)}"
+                psi = f"{row.psi:.3g}"
+            out.append(f"{row.line:>6}{row.scan_rate_V_s:>12.3g}{row.dEp_mV:>10.1f}{psi:>9}{k0:>15}")
+        out.append("")
+    if r.log10_k0_measured is not None:
+        m, s = r.log10_k0_measured, r.log10_k0_measured_sd
+        out.append(f"  measured   {_pow10(m):>10} cm/s   95 % [{_pow10(m - 1.96 * s)}, {_pow10(m + 1.96 * s)}]"
+                   f"  log10 ratio {r.log10_ratio:+.2f}")
+    else:
+        out.append(f"  measured   >= {_pow10(r.log10_k0_lower_bound)} cm/s (lower bound)")
+    if r.slope_log10_k0_vs_log10_v is not None:
+        out.append(f"  slope of log10 k0 against log10 v: {r.slope_log10_k0_vs_log10_v:+.2f} (0 expected)")
+    out.append("")
+    out += wrap_text(f"verdict: {r.verdict} - {r.verdict_text}", subsequent="  ")
+    if r.likely_causes:
+        out.append("likely causes worth checking:")
+        for k, cause in enumerate(r.likely_causes[:4], start=1):
+            out += wrap_text(f"{k}. {cause}", indent="  ", subsequent="     ")
+    return out
