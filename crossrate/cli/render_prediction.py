@@ -76,7 +76,8 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
         ("k11 (at these conditions)", pow10(p.log10_k11), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k11, 3)}"),
         ("k22 (at these conditions)", pow10(p.log10_k22), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k22, 3)}"),
         ("k_act (activation)", pow10(p.log10_k_act), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k_act, 3)}"),
-        ("k_D (diffusion limit)", pow10(p.log10_k_diff), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k_diff, 3)}"),
+        ("k_D (diffusion limit)", pow10(p.log10_k_diff), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k_diff, 3)}"
+         + (f"; SD {p.log10_k_diff_sd:g}" if p.log10_k_diff_sd else "")),
         ("k_obs (predicted)", pow10(p.log10_k_obs), RATE_UNIT, f"log10 = {fmt_fixed(p.log10_k_obs, 3)}"),
     ]
     if p.log10_k_obs_95 is not None:

@@ -15,6 +15,7 @@ from .couple_lambda import lambda_columns
 from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
 from .results import PredictionTable
 from .self_exchange import self_exchange_at
+from .uncertainty import DEFAULT_K_DIFF_LOG10_SD
 
 LN10 = float(np.log(10.0))
 
@@ -164,6 +165,10 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
                     dn = run(*shift).ln_k_obs
                     var += ((up - dn) / (2 * h) * s) ** 2
                 sd = np.sqrt(var) / LN10
+            if cond.diffusion:
+                # k_D's own uncertainty: d ln k_obs / d ln k_D = k_obs / k_D exactly (1/k_obs = 1/k_act + 1/k_D).
+                share = np.exp(np.asarray(res.ln_k_obs, dtype=float) - np.asarray(res.ln_k_diff, dtype=float))
+                sd = np.hypot(sd, share * DEFAULT_K_DIFF_LOG10_SD)
     bad = problem != ""
     return res, sd, problem, bad
 
@@ -174,7 +179,8 @@ def predict_many(
     """Predict k12 for many pairs (ids or integer positions; equal lengths), vectorized.
 
     Same model as predict() (Marcus cross relation, work terms, diffusion cap); uncertainty is the
-    first-order (linear) SD of log10 k_obs. Pairs that cannot be computed are NaN with a reason.
+    first-order (linear) SD of log10 k_obs from E, k_self and k_D (DEFAULT_K_DIFF_LOG10_SD, with the cap on).
+    Pairs that cannot be computed are NaN with a reason.
     """
     require_couple_set(couple_set)
     require_conditions(conditions)

@@ -14,10 +14,18 @@ from ..library.couple_set import CoupleSet
 from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .carried_potentials import basis_text, other_medium_message, potential_warnings, potentials_at
 from .conditions import Conditions
+from .flat_model import flat_model_note, flatness
 from .prediction_warnings import pair_warnings
 from .results import CarriedPotential, Prediction, UsedConditions, WorkTerms
 from .self_exchange import DEFAULT_K_SELF_LOG10_SD, self_exchange_at
-from .uncertainty import DEFAULT_E_SD_V, InputSpread, linear_sd, monte_carlo
+from .uncertainty import (
+    DEFAULT_E_SD_V,
+    DEFAULT_K_DIFF_LOG10_SD,
+    InputSpread,
+    gradient,
+    linear_sd,
+    monte_carlo,
+)
 
 LN10 = float(np.log(10.0))
 #: Seed of the Monte Carlo interval when none is given (the CLI's default too), so a prediction is reproducible.
@@ -146,7 +154,7 @@ def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
     # kappa_el of both couples: lambda_ii is read from k_ii / (kappa_el Z), and k12 carries kappa12.
     ln_kap = np.log(np.asarray(se.kappa_el, dtype=float))
 
-    def evaluate(dE1=0.0, dE2=0.0, dlnk11=0.0, dlnk22=0.0) -> CrossRateArrays:
+    def evaluate(dE1=0.0, dE2=0.0, dlnk11=0.0, dlnk22=0.0, dlnkD=0.0) -> CrossRateArrays:
         return cross_rate(
             E1 + np.asarray(dE1),
             E2 + np.asarray(dE2),
@@ -166,6 +174,7 @@ def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
             diffusion=rc.diffusion,
             ln_kappa11=float(ln_kap[0]),
             ln_kappa22=float(ln_kap[1]),
+            d_ln_k_diff=dlnkD,
         )
 
     return evaluate, se
@@ -222,12 +231,14 @@ def predict(
         E2_V=float(pa.E_sd_V[1]),
         ln_k11=float(se.ln_k_sd[0]),
         ln_k22=float(se.ln_k_sd[1]),
+        ln_k_diff=DEFAULT_K_DIFF_LOG10_SD * LN10 if rc.diffusion else 0.0,
     )
 
-    def model(d1, d2, d3, d4):
-        return evaluate(d1, d2, d3, d4).ln_k_obs
+    def model(d1, d2, d3, d4, d5):
+        return evaluate(d1, d2, d3, d4, d5).ln_k_obs
 
-    sd_lin = linear_sd(model, spread)
+    grad = gradient(model)
+    sd_lin = linear_sd(model, spread, grad=grad)
     if samples and samples > 0:
         lo, hi, sd_mc = monte_carlo(model, spread, int(samples), seed)
         interval = (lo, hi)
@@ -251,6 +262,12 @@ def predict(
         + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium)
         + pair_warnings(ox, red, rc, res, estimated, defaulted)
     )
+    flat = flat_model_note(
+        flatness(grad, spread.as_array(), rc.temperature_K),
+        float(np.exp(res.ln_k_obs - res.ln_k_diff)) if rc.diffusion else None,
+        float(res.dG0_prime / res.lambda12), spread.ln_k_diff / LN10,
+    )
+    warnings += (flat,) if flat else ()
 
     def f(x):
         return float(np.asarray(x))
@@ -295,6 +312,7 @@ def predict(
         warnings=warnings,
         estimated=estimated,
         kappa_el12=float(np.exp(f(res.ln_kappa12))),
+        log10_k_diff_sd=spread.ln_k_diff / LN10,
         oxidant_provenance=ox.provenance,
         reductant_provenance=red.provenance,
         potentials=potential_records(ox, red, pa, rc),

@@ -118,6 +118,8 @@ class Prediction(_Record):
     oxidant_provenance: str = ""
     reductant_provenance: str = ""
     potentials: tuple[CarriedPotential, ...] = ()
+    #: SD of log10 k_D propagated into the interval and the SD (0 with the diffusion cap off).
+    log10_k_diff_sd: float = 0.0
 
     @property
     def k_obs(self) -> float:

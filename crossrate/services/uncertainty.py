@@ -1,8 +1,13 @@
-"""Propagating the uncertainty of E and k_self of both couples into log10 k_obs.
+"""Propagating the uncertainty of E and k_self of both couples, and of the diffusion limit, into log10 k_obs.
 
-Two methods: a seeded, vectorized Monte Carlo (normal draws of E1, E2, ln k11, ln k22, independent), and
-first-order (linear) propagation with central-difference derivatives. The model is smooth, so the two
-agree where it is near-linear over the spread of the inputs.
+Two methods: a seeded, vectorized Monte Carlo (normal draws of E1, E2, ln k11, ln k22 and ln k_D,
+independent), and first-order (linear) propagation with central-difference derivatives. The model is smooth,
+so the two agree where it is near-linear over the spread of the inputs.
+
+k_D (Stokes-Einstein diffusion coefficients from the couples' radii and the solvent viscosity, Debye's
+encounter integral) is uncertain through the radii, the viscosity and the hydrodynamic model itself (stick
+or slip, a sphere for a molecule, continuum screening): such a k_D is good to about a factor of 2 (common
+practice). The project's choice is a default SD of 0.3 in log10 k_D (a factor of 2 at one SD).
 """
 
 from collections.abc import Callable
@@ -12,36 +17,49 @@ import numpy as np
 
 #: Default SD of a formal potential when a couple states none, V (common practice for tabulated E deg').
 DEFAULT_E_SD_V = 0.010
+#: Default SD of log10 k_D (the project's choice: a Stokes-Einstein, Debye k_D is good to about a factor of 2).
+DEFAULT_K_DIFF_LOG10_SD = 0.3
 LN10 = float(np.log(10.0))
 
 
 @dataclass(frozen=True)
 class InputSpread:
-    """Standard deviations of the four uncertain inputs: E1_V, E2_V (V), ln_k11, ln_k22 (natural log)."""
+    """Standard deviations of the uncertain inputs: E1_V, E2_V (V), ln_k11, ln_k22 and ln_k_diff (natural
+    log; 0 when the diffusion cap is off)."""
 
     E1_V: float
     E2_V: float
     ln_k11: float
     ln_k22: float
+    ln_k_diff: float = 0.0
 
     def as_array(self) -> np.ndarray:
-        return np.array([self.E1_V, self.E2_V, self.ln_k11, self.ln_k22], dtype=float)
+        return np.array([self.E1_V, self.E2_V, self.ln_k11, self.ln_k22, self.ln_k_diff], dtype=float)
 
 
-# model(dE1, dE2, dlnk11, dlnk22) -> ln k_obs; shifts broadcast.
-Model = Callable[[np.ndarray, np.ndarray, np.ndarray, np.ndarray], np.ndarray]
+# model(dE1, dE2, dlnk11, dlnk22, dlnkD) -> ln k_obs; shifts broadcast.
+Model = Callable[[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray], np.ndarray]
+#: Central-difference steps: V for the potentials, natural-log units for the rates.
+STEPS = (1e-4, 1e-4, 1e-3, 1e-3, 1e-3)
 
 
-def linear_sd(model: Model, spread: InputSpread, steps=(1e-4, 1e-4, 1e-3, 1e-3)) -> float:
-    """First-order SD of log10 k_obs: sqrt(sum_i (d log10 k / d x_i * sd_i)^2), central differences."""
+def gradient(model: Model, steps=STEPS) -> np.ndarray:
+    """d ln k_obs / d x_i for the five inputs (per V for E, dimensionless for the ln k), central differences."""
     h = np.asarray(steps, dtype=float)
-    shifts = np.zeros((8, 4))
-    for i in range(4):
+    n = h.shape[0]
+    shifts = np.zeros((2 * n, n))
+    for i in range(n):
         shifts[2 * i, i] = h[i]
         shifts[2 * i + 1, i] = -h[i]
-    out = np.asarray(model(shifts[:, 0], shifts[:, 1], shifts[:, 2], shifts[:, 3]), dtype=float)
-    grad = (out[0::2] - out[1::2]) / (2.0 * h) / LN10
-    return float(np.sqrt(np.sum((grad * spread.as_array()) ** 2)))
+    out = np.asarray(model(*(shifts[:, i] for i in range(n))), dtype=float)
+    return (out[0::2] - out[1::2]) / (2.0 * h)
+
+
+def linear_sd(model: Model, spread: InputSpread, steps=STEPS, grad=None) -> float:
+    """First-order SD of log10 k_obs: sqrt(sum_i (d log10 k / d x_i * sd_i)^2), central differences (or the
+    gradient from gradient(), natural-log units, when given)."""
+    g = gradient(model, steps) if grad is None else np.asarray(grad, dtype=float)
+    return float(np.sqrt(np.sum((g / LN10 * spread.as_array()) ** 2)))
 
 
 def monte_carlo(model: Model, spread: InputSpread, samples: int, seed: int | None = None):
@@ -53,7 +71,7 @@ def monte_carlo(model: Model, spread: InputSpread, samples: int, seed: int | Non
     if samples < 2:
         raise ValueError(f"samples = {samples}: a Monte Carlo interval needs at least 2 draws")
     rng = np.random.default_rng(seed)
-    draws = rng.standard_normal((4, samples)) * spread.as_array()[:, None]
-    log10_k = np.asarray(model(draws[0], draws[1], draws[2], draws[3]), dtype=float) / LN10
+    draws = rng.standard_normal((5, samples)) * spread.as_array()[:, None]
+    log10_k = np.asarray(model(*draws), dtype=float) / LN10
     lo, hi = np.percentile(log10_k, [2.5, 97.5])
     return float(lo), float(hi), float(np.std(log10_k, ddof=1))
