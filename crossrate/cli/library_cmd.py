@@ -24,7 +24,7 @@ def register(subparsers) -> None:
 
     lib = subparsers.add_parser(
         "library",
-        help="validate, list, show, add, rename, remove, import and export library couples",
+        help="validate, list, show, add, rename, remove, import, export, diff and audit library couples",
         description="Work with the couple library: TOML files layered bundled -> group -> personal -> --library. "
         "The file format is described in libraries/README.md.",
     )
@@ -85,9 +85,9 @@ def register(subparsers) -> None:
     p.add_argument("couple_id", metavar="ID", help="id of the couple to remove")
     p.set_defaults(func=run_remove)
 
-    from . import library_export_cmd, library_import_cmd
+    from . import library_audit_cmd, library_diff_cmd, library_export_cmd, library_import_cmd
 
-    for module in (library_export_cmd, library_import_cmd):
+    for module in (library_export_cmd, library_import_cmd, library_diff_cmd, library_audit_cmd):
         module.register(sub)
 
 
