@@ -62,15 +62,18 @@ def test_cli_text_and_json(tmp_path, capsys):
 
 
 def test_predictions_move_largest_first_and_match_the_prediction_service(tmp_path, capsys):
-    old_lf = parse_library_text(BASE, "old")
-    new_lf = parse_library_text(BASE.replace("E = 0.50", "E = 0.60"), "new")
+    water = BASE.split("# --- acetonitrile ---")[0]  # t-one and t-two, both aqueous
+    extra = ('[couple.t-five]\nname = "test five 1+/0"\ncharge_ox = 1\ncharge_red = 0\nE = 0.05\nk_self = 3.0e5\n'
+             'radius = 5.0\nionic_strength = 0.1\nsource = "invented for the tests"\n')
+    old_lf = parse_library_text(water + extra, "old")
+    new_lf = parse_library_text(water.replace("E = 0.50", "E = 0.60") + extra, "new")
     old_set = CoupleSet(old_lf.couples, ScaleRegistry(old_lf.scales))
     new_set = CoupleSet(new_lf.couples, ScaleRegistry(new_lf.scales))
-    cond = Conditions(ionic_strength_M=0.1, allow_mixed_media=True, medium="water")
+    cond = Conditions(ionic_strength_M=0.1)
     shifts = rate_shifts(old_set, new_set, conditions=cond)
-    # only pairs with the changed couple t-one can move: 2 x 2 ordered pairs with t-two and t-three
+    # only pairs with the changed couple t-one can move: 2 x 2 ordered pairs with t-two and t-five
     assert {(s.oxidant, s.reductant) for s in shifts} == {("t-one", "t-two"), ("t-two", "t-one"),
-                                                          ("t-one", "t-three"), ("t-three", "t-one")}
+                                                          ("t-one", "t-five"), ("t-five", "t-one")}
     moves = [abs(s.shift) for s in shifts]
     assert moves == sorted(moves, reverse=True) and moves[0] > 0
     for s in shifts:  # the same numbers predict_many gives for each version (internal consistency)
