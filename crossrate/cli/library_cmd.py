@@ -90,6 +90,10 @@ def register(subparsers) -> None:
     for module in (library_export_cmd, library_import_cmd, library_diff_cmd, library_audit_cmd):
         module.register(sub)
 
+    from . import library_new_cmd
+
+    library_new_cmd.register(sub)
+
 
 def _no_action(parser) -> int:
     parser.print_help(sys.stderr)
@@ -217,7 +221,8 @@ def run_show(args) -> int:
     if o is not None:
         lines.append(f"  from            {o.path}:{o.line} ({o.layer} layer)")
     if c.invented:
-        lines.append("  INVENTED        made-up demo values, not measurements; never use them for real predictions")
+        lines.append("  INVENTED        made-up values (demo, teaching), not measurements; never use them for real "
+                     "predictions")
     elif not c.verified:
         lines.append("  UNVERIFIED      values recalled or estimated, not checked against the primary source")
     for s in FIELD_SPECS:

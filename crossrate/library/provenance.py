@@ -16,7 +16,7 @@ MARKS = {"invented": INVENTED_MARK, "unverified": UNVERIFIED_MARK, "verified": "
 
 #: Legend of each mark, in the words every face uses.
 MARK_LEGEND = {
-    "invented": "invented: made-up demo values, not measurements; never use them for real predictions",
+    "invented": "invented: made-up values (demo, teaching), not measurements; never use them for real predictions",
     "unverified": "unverified: values recalled or estimated, not checked against the primary source",
 }
 

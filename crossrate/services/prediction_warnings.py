@@ -17,7 +17,7 @@ def pair_warnings(ox, red, rc, res, estimated, defaulted) -> tuple[str, ...]:
     out = []
     for c in (ox, red):
         if c.invented:
-            out.append(f"{c.id}: invented values (made-up demo data, not measurements); never use them for real "
+            out.append(f"{c.id}: invented values (made-up, not measurements); never use them for real "
                        "predictions")
         elif not c.verified:
             out.append(f"{c.id}: values not verified against the primary source (recalled or estimated)")

@@ -22,6 +22,8 @@ class CrossrateApp(App):
         self.layers = dict(layers or {})
         self._given_set = couple_set
         self.unsaved_edits = False
+        #: Library files made in this session with "new library file…" (they join library_paths once written).
+        self.created_library_files: list[str] = []
         #: Why the library could not be read ("" when it was): shown in the app, printed and exit 2 on quit.
         self.load_problem = ""
 

@@ -136,3 +136,11 @@ def writable_files(couple_set) -> list[tuple[str, str]]:
     for f in couple_set.files:
         layers.setdefault(f, "file")
     return sorted(layers.items(), key=lambda kv: (kv[1] in ("bundled", "demo"), kv[0]))
+
+
+def create_library_file(path: str) -> str:
+    """A new library file at path through library.new_library (header and a commented example couple);
+    returns its sha256. CrossrateError when it exists already or cannot be made: nothing is written then."""
+    from ..library.new_library import create_library
+
+    return create_library(path)

@@ -68,7 +68,7 @@ def test_screen_table_marks_invented_and_unverified_partners(run_cli):
     # every partner carries its mark: '!' for the invented hl- couples, '?' for the recalled starter ones
     assert all(p.endswith("!") if p.startswith("hl-") else p.endswith("?") for p in rows)
     flat = " ".join(out.split())
-    assert "! invented: made-up demo values" in flat and "? unverified: values recalled or estimated" in flat
+    assert "! invented: made-up values (demo, teaching)" in flat and "? unverified: values recalled or estimated" in flat
 
 
 def test_predict_table_names_each_couples_provenance(run_cli):

@@ -118,7 +118,7 @@ def test_list_marks_invented_couples_apart_from_unverified(run):
     assert "+1.050!" in med3 and "?" not in med3  # invented: its own mark, not the unverified one
     assert "+0.740?" in fe and "!" not in fe
     flat = " ".join(out.split())
-    assert "! invented: made-up demo values, not measurements; never use them for real predictions (25 of" in flat
+    assert "! invented: made-up values (demo, teaching), not measurements; never use them for real predictions (25 of" in flat
     rc, out, _ = run("library", "show", "hl-med3", "--demo")
     assert rc == 0 and "INVENTED" in out and "UNVERIFIED" not in out
 

@@ -35,7 +35,7 @@ async def test_invented_couple_marked_in_table_detail_and_pair_bar():
                 if len(ln.split()) > 2 and ln.split()[0] in "!?" and ln.split()[1].startswith("hl-")}
         assert rows["hl-made-up"] == "!"  # its own mark in the first column
         assert rows["hl-iron"] == "?"  # the unverified one keeps '?'
-        assert "! invented: made-up demo values" in text  # the detail of the highlighted (first) couple
+        assert "! invented: made-up values (demo, teaching)" in text  # the detail of the highlighted (first) couple
         await pilot.press("o", "down", "down", "r")  # hl-made-up + hl-iron (small_couples' row 1)
         while any(not w.is_finished for w in app.workers):
             await pilot.pause(0.02)

@@ -13,6 +13,9 @@ from ...errors import ConflictError, CrossrateError
 from ..widgets.couple_form import CoupleForm
 from .confirm_screen import ConfirmScreen
 
+#: Value of the file choice's last entry, which opens the "new library file…" dialog.
+NEW_FILE = "\x00new library file"
+
 
 class EditorScreen(Screen[str | None]):
     """mode: 'add', 'edit' or 'duplicate'. Dismisses with the id written (None when nothing was)."""
@@ -38,7 +41,8 @@ class EditorScreen(Screen[str | None]):
         options = [(f"{layer}: {path}", path) for path, layer in self.files]
         start = c.origin.path if c is not None and c.origin is not None and c.origin.path in dict(self.files) else None
         yield Label("write to file")
-        yield Select(options, value=start if start else (options[0][1] if options else Select.NULL),
+        yield Select([*options, ("new library file…", NEW_FILE)],
+                     value=start if start else (options[0][1] if options else Select.NULL),
                      allow_blank=not options, id="editor-file", compact=True, disabled=self.mode == "edit")
         new_id = c.id if (c and self.mode == "edit") else (f"{c.id}-copy" if c else "")
         yield CoupleForm(c if self.mode != "add" else None, new_id, id="form")
@@ -62,7 +66,31 @@ class EditorScreen(Screen[str | None]):
     @property
     def target(self) -> str | None:
         v = self.query_one("#editor-file", Select).value
-        return None if v is Select.NULL else str(v)
+        return None if v is Select.NULL or v == NEW_FILE else str(v)
+
+    def on_select_changed(self, event: Select.Changed) -> None:
+        """"new library file…" asks for a path, creates the file and makes it the file to write to."""
+        if event.select.id != "editor-file" or event.value != NEW_FILE:
+            return
+        from .new_library_screen import NewLibraryScreen
+
+        select = event.select
+
+        def created(path: str | None) -> None:
+            if not path:
+                select.value = self._last_file if self._last_file else Select.NULL
+                return
+            self.app.created_library_files.append(path)
+            self.files = [*self.files, (path, "new")]
+            select.set_options([*((f"{layer}: {p}", p) for p, layer in self.files), ("new library file…", NEW_FILE)])
+            select.value = path
+            self._message(f"created {path}; the couple is written there on ctrl+s")
+
+        self.app.push_screen(NewLibraryScreen(), created)
+
+    @property
+    def _last_file(self) -> str | None:
+        return self.files[0][0] if self.files else None
 
     def action_save(self) -> None:
         form = self.query_one(CoupleForm)

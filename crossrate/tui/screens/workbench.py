@@ -80,7 +80,11 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         self.set_focus(self.query_one(CoupleTable))
         # Load after the first frame is on the terminal: the loader imports numpy and scipy in a thread, and
         # holding the GIL for that would delay the driver's writer thread (and so the first paint) by ~0.5 s.
-        self.call_after_refresh(lambda: self.set_timer(FIRST_PAINT_GRACE_S, self.start_loading))
+        # A --library file that does not exist yet is offered to be created first (new_library_screen.py).
+        from .new_library_screen import offer_missing_files
+
+        self.call_after_refresh(lambda: offer_missing_files(
+            self, lambda: self.set_timer(FIRST_PAINT_GRACE_S, self.start_loading)))
 
     def on_resize(self, event) -> None:
         self.set_class(event.size.width < NARROW_BELOW, "-narrow")

@@ -28,14 +28,15 @@ class WorkbenchEditing:
         if mode != "add" and couple is None:
             self.status("no couple highlighted")
             return
-        files = writable_files(cs)
-        if not files:
-            self.status("no library file to write to: start crossrate with --library PATH")
-            return
+        files = writable_files(cs)  # may be empty: the editor's file choice offers "new library file…"
 
         def done(written: str | None) -> None:
             self.app.unsaved_edits = False
             if written:
+                # a file made with "new library file…" joins the set (as if given with --library)
+                for path in self.app.created_library_files:
+                    if path not in self.app.library_paths:
+                        self.app.library_paths.append(path)
                 self.action_reload()
                 self.query_one(CoupleTable).select_id(written)
                 self.status(f"wrote couple {written}")

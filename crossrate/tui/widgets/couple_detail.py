@@ -26,7 +26,8 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     t.append(f"{c.id}", style="bold")
     t.append(f"  {printable(c.name, keep_newlines=False)}\n")
     if c.invented:
-        t.append("! invented: made-up demo values, not measurements; never use them for real predictions\n",
+        t.append("! invented: made-up values (demo, teaching), not measurements; never use them for real "
+                 "predictions\n",
                  style="bold")
     elif not c.verified:
         t.append("? not verified against the primary source (recalled or estimated)\n", style="bold")
