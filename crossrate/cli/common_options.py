@@ -92,6 +92,20 @@ def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: s
     g.add_argument("--no-diffusion", action="store_true", help="do not cap the rate at the diffusion limit")
 
 
+def add_rate_model_options(parser: argparse.ArgumentParser) -> None:
+    """--model classical|semiclassical and --hbar-omega CM-1 (services.rate_model)."""
+    g = parser.add_argument_group("rate model")
+    g.add_argument(
+        "--model", dest="rate_model", choices=("classical", "semiclassical"), default="classical",
+        help="classical Marcus cross relation (default) or semiclassical: the same times a quantum factor "
+             "(one quantized mode, Marcus-Levich-Jortner) that is 1 at dG0' = 0",
+    )
+    g.add_argument(
+        "--hbar-omega", type=positive_float, default=None, metavar="CM-1",
+        help="energy of the quantized mode, 100-5000 cm^-1 (default 1500)",
+    )
+
+
 def add_format_option(parser: argparse.ArgumentParser, choices=("table", "json"), default="table") -> None:
     parser.add_argument("--format", choices=choices, default=default, help=f"output form (default {default})")
 
@@ -108,6 +122,8 @@ def conditions_from_args(args):
         diffusion=not args.no_diffusion,
         allow_mixed_media=args.allow_mixed_media,
         allow_E_other_medium=getattr(args, "allow_E_other_medium", False),
+        rate_model=getattr(args, "rate_model", "classical"),
+        hbar_omega_cm1=getattr(args, "hbar_omega", None),
     )
 
 

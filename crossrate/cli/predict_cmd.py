@@ -2,7 +2,13 @@
 
 import argparse
 
-from .common_options import add_condition_options, add_format_option, add_library_option, seed_value
+from .common_options import (
+    add_condition_options,
+    add_format_option,
+    add_library_option,
+    add_rate_model_options,
+    seed_value,
+)
 from .help_format import CAUTION
 
 #: Seed of the Monte Carlo interval when --seed is not given, so the same command prints the same interval;
@@ -72,6 +78,7 @@ def register(subparsers) -> None:
     p.add_argument("reductant", metavar="REDUCTANT", help="id of the reductant's couple (Ox2/Red2)")
     add_library_option(p)
     add_condition_options(p)
+    add_rate_model_options(p)
     add_mc_options(p)
     add_format_option(p, choices=("table", "json"), default="table")
     p.set_defaults(func=run)

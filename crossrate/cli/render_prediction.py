@@ -66,6 +66,17 @@ def prediction_sections(p, sym: dict[str, str]) -> list[tuple[str, list[tuple[st
     ]
     if kz != "Z":
         barrier.append((f"{kappa.strip()}12 (electronic)", fmt_fixed(p.kappa_el12, 3), "", f"({kappa}11 {kappa}22)^1/2"))
+    if p.rate_model == "semiclassical" and p.semiclassical:
+        q = p.semiclassical
+        barrier += [
+            ("rate model", "MLJ", "", "semiclassical: Marcus-Levich-Jortner quantum factor Q, Q = 1 at dG0' = 0"),
+            (f"{lam}12 inner (quantized)", fmt_fixed(q["lambda_in12_kJ_per_mol"], 2), "kJ/mol",
+             "from " + ", ".join(f"{k}: {v}" for k, v in q["inner_from"].items())),
+            (f"{lam}12 outer (classical)", fmt_fixed(q["lambda_out12_kJ_per_mol"], 2), "kJ/mol", ""),
+            ("hbar omega", f"{q['hbar_omega_cm1']:g}", "cm^-1", "energy of the quantized mode"),
+            ("Q (quantum factor)", pow10(q["log10_quantum_factor"]), "",
+             f"log10 Q = {fmt_fixed(q['log10_quantum_factor'], 3)}; k_act includes it"),
+        ]
     work = [
         ("w11 (Ox1 + Red1)", fmt_fixed(w.w11, 3), "kJ/mol", "oxidant's self-exchange"),
         ("w22 (Ox2 + Red2)", fmt_fixed(w.w22, 3), "kJ/mol", "reductant's self-exchange"),

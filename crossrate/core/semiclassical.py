@@ -31,6 +31,7 @@ from .constants import GAS_CONSTANT
 #: so the omitted tails are bounded by the edge term times r / (1 - r), r the edge ratio).
 SUM_TOLERANCE = 1e-13
 _MAX_WIDENINGS = 12
+_CHUNK = 4096
 
 
 def _ln_skellam(n, mu1, mu2, ln_mu1, ln_mu2, K):
@@ -220,13 +221,28 @@ def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J
     RT = GAS_CONSTANT * T
     S = lv / hw
     nu = 1.0 / np.expm1(hw / RT)
+    var_p, var_g = S * (2.0 * nu + 1.0), 2.0 * ls * RT / hw**2
+    width = np.sqrt(var_p * var_g / np.maximum(var_p + var_g, 1e-300))
+    # A cold mode (few thermal quanta, the usual case for hbar omega >> RT): the inner sum over k is short.
+    # A warm one: the Bessel form. Each kind is summed apart, in chunks of similar window width.
+    hot = S * np.sqrt(nu * (nu + 1.0)) >= 1.0
+    out = np.empty_like(x)
+    for group, is_hot in ((~hot, False), (hot, True)):
+        idx = np.flatnonzero(group)
+        order = idx[np.argsort(width[idx], kind="stable")]
+        for s in range(0, order.size, _CHUNK):
+            sel = order[s:s + _CHUNK]
+            out[sel] = _sum_levels(x[sel], ls[sel], hw[sel], RT[sel], S[sel], nu[sel], is_hot)
+    lead = 0.5 * (np.log(ls + lv) - np.log(ls))
+    return (lnA + lead + out).reshape(shape)
+
+
+def _sum_levels(x, ls, hw, RT, S, nu, hot):
+    """ln of the sum over n (module docstring) for 1-D arrays of one kind (all cold or all warm modes)."""
     mu1, mu2 = S * (nu + 1.0), S * nu
     with np.errstate(divide="ignore"):
         ln_mu1 = np.where(mu1 > 0, np.log(np.maximum(mu1, 1e-300)), -1e300)
         ln_mu2 = np.where(mu2 > 0, np.log(np.maximum(mu2, 1e-300)), -1e300)
-    # A cold mode (few thermal quanta, the usual case for hbar omega >> RT): the inner sum over k is short.
-    # A warm one: the Bessel form.
-    hot = float(np.max(np.sqrt(mu1 * mu2), initial=0.0)) >= 1.0
     K = 0 if hot else _inner_terms(mu1, mu2)
     # Where the terms peak: the product of the Skellam weight (mean S, variance S(2 nu + 1)) and the
     # Gaussian in n (centre -(Delta G deg + lambda_s)/hbar omega, variance 2 lambda_s RT / hbar omega^2).
@@ -238,7 +254,6 @@ def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J
     centre = np.rint(centre).astype(np.int64)
     half = np.ceil(8.0 * width + 6.0).astype(np.int64)
     cold = mu2 == 0.0  # no thermal quanta: P_n = 0 for n < 0
-    lead = 0.5 * (np.log(ls + lv) - np.log(ls))
     out = np.empty_like(x)
     todo = np.arange(x.size)
     for _ in range(_MAX_WIDENINGS):
@@ -267,7 +282,8 @@ def mlj_ln_k(dG0_J_per_mol, lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_J
         todo = bad
     if todo.size:
         raise ArithmeticError("mlj_ln_k: the sum over vibrational levels did not converge")
-    return (lnA + lead + out).reshape(shape)
+    return out
+
 
 
 def classical_ln_k(dG0_J_per_mol, lambda_J_per_mol, T_K, ln_A=0.0):
@@ -313,3 +329,22 @@ def mlj_minus_dG0_at_maximum(lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_
         else:
             a = c
     return 0.5 * (a + b)
+
+
+def pair_inner_lambda(lambda11_J, lambda22_J, lambda_in11_J, lambda_in22_J, default_fraction, max_fraction=0.95):
+    """The high-frequency (inner) part of a cross reaction's lambda12, from the couples' inner parts.
+
+    lambda_v,ii = lambda_in,ii where given (NaN = not given: default_fraction x lambda_ii), held to at most
+    max_fraction x lambda_ii (the inner part cannot exceed the whole); lambda_v12 = (lambda_v11 +
+    lambda_v22)/2, the same additivity rule as lambda12 = (lambda11 + lambda22)/2 (Marcus cross relation).
+
+    Args: self-exchange lambdas and inner parts in J/mol (arrays broadcast); fractions dimensionless.
+    Returns: (lambda_v12 J/mol, clipped: bool array, any couple's inner part cut to max_fraction).
+    """
+    l11, l22 = np.asarray(lambda11_J, dtype=float), np.asarray(lambda22_J, dtype=float)
+    v11 = np.where(np.isfinite(lambda_in11_J), lambda_in11_J, default_fraction * l11)
+    v22 = np.where(np.isfinite(lambda_in22_J), lambda_in22_J, default_fraction * l22)
+    clipped = (v11 > max_fraction * l11) | (v22 > max_fraction * l22)
+    v11 = np.clip(v11, 0.0, max_fraction * l11)
+    v22 = np.clip(v22, 0.0, max_fraction * l22)
+    return 0.5 * (v11 + v22), clipped

@@ -20,7 +20,8 @@ class Conditions:
     agree), medium a solvent key (None: the couples' own), Z in M^-1 s^-1, diffusion: apply the cap.
     allow_mixed_media: couples measured in different media may react (k_self carried to the medium);
     allow_E_other_medium: a potential measured in another medium than the target's is used as given (not
-    carried; the outputs say so) instead of refusing the pair."""
+    carried; the outputs say so) instead of refusing the pair.
+    rate_model: 'classical' or 'semiclassical' with hbar_omega_cm1 (cm^-1, None = default)."""
 
     temperature_K: float = STANDARD_TEMPERATURE
     ionic_strength_M: float | None = None
@@ -29,8 +30,16 @@ class Conditions:
     diffusion: bool = True
     allow_mixed_media: bool = False
     allow_E_other_medium: bool = False
+    #: 'classical' (Marcus cross relation) or 'semiclassical' (with a quantized mode; services.rate_model).
+    rate_model: str = "classical"
+    #: Energy of the semiclassical model's quantized mode, cm^-1 (None: the default, 1500 cm^-1).
+    hbar_omega_cm1: float | None = None
 
     def __post_init__(self):
+        if self.rate_model != "classical" or self.hbar_omega_cm1 is not None:
+            from .rate_model import check_rate_model
+
+            check_rate_model(self.rate_model, self.hbar_omega_cm1)
         T = self.temperature_K
         if isinstance(T, bool) or not (isinstance(T, int | float) and np.isfinite(T)) or not (
             TEMPERATURE_RANGE_K[0] <= T <= TEMPERATURE_RANGE_K[1]

@@ -144,8 +144,9 @@ def potential_records(ox: Couple, red: Couple, pa, rc: ResolvedConditions) -> tu
     return tuple(out)
 
 
-def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
-    """(evaluate(dE1, dE2, dlnk11, dlnk22) -> CrossRateArrays, SelfExchangeAt of both couples)."""
+def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions, quantum=None):
+    """(evaluate(dE1, dE2, dlnk11, dlnk22) -> CrossRateArrays, SelfExchangeAt of both couples); quantum: a
+    rate_model.QuantumModel for the semiclassical model (None: classical)."""
     a = cs.arrays
     se = self_exchange_at(
         cs, [i_ox, i_red], rc.temperature_K, rc.ionic_strength_M, rc.eps_r, rc.ln_Z, medium=rc.medium
@@ -155,6 +156,10 @@ def _pair_model(cs, i_ox, i_red, E1, E2, rc: ResolvedConditions):
     ln_kap = np.log(np.asarray(se.kappa_el, dtype=float))
 
     def evaluate(dE1=0.0, dE2=0.0, dlnk11=0.0, dlnk22=0.0, dlnkD=0.0) -> CrossRateArrays:
+        out = classical(dE1, dE2, dlnk11, dlnk22, dlnkD)
+        return out if quantum is None else quantum.apply(out, rc.temperature_K, rc.diffusion)
+
+    def classical(dE1, dE2, dlnk11, dlnk22, dlnkD) -> CrossRateArrays:
         return cross_rate(
             E1 + np.asarray(dE1),
             E2 + np.asarray(dE2),
@@ -219,7 +224,12 @@ def predict(
     pa = carry_potentials(couple_set, ox, red, rc, cond)
     E1, E2 = (float(e) for e in pa.E_root_V)
     i_ox, i_red = (int(i) for i in couple_set.index_of([oxidant, reductant]))
-    evaluate, se = _pair_model(couple_set, i_ox, i_red, E1, E2, rc)
+    quantum = None
+    if cond.rate_model == "semiclassical":
+        from .rate_model import quantum_model
+
+        quantum = quantum_model(couple_set, (i_ox, i_red), cond.hbar_omega_cm1)
+    evaluate, se = _pair_model(couple_set, i_ox, i_red, E1, E2, rc, quantum)
     for r in se.reason:
         if r:
             raise ScienceError(r + "; add one to the library or estimate lambda with `crossrate lambda`")
@@ -268,6 +278,13 @@ def predict(
         float(res.dG0_prime / res.lambda12), spread.ln_k_diff / LN10,
     )
     warnings += (flat,) if flat else ()
+    semiclassical = None
+    if quantum is not None:
+        from .rate_model import semiclassical_summary
+
+        semiclassical, more = semiclassical_summary(quantum, res, rc.temperature_K, (ox.id, red.id),
+                                                    cond.hbar_omega_cm1 is not None)
+        warnings = tuple(warnings) + tuple(more)
 
     def f(x):
         return float(np.asarray(x))
@@ -313,6 +330,8 @@ def predict(
         estimated=estimated,
         kappa_el12=float(np.exp(f(res.ln_kappa12))),
         log10_k_diff_sd=spread.ln_k_diff / LN10,
+        rate_model=cond.rate_model,
+        semiclassical=semiclassical,
         oxidant_provenance=ox.provenance,
         reductant_provenance=red.provenance,
         potentials=potential_records(ox, red, pa, rc),

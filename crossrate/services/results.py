@@ -120,6 +120,11 @@ class Prediction(_Record):
     potentials: tuple[CarriedPotential, ...] = ()
     #: SD of log10 k_D propagated into the interval and the SD (0 with the diffusion cap off).
     log10_k_diff_sd: float = 0.0
+    #: 'classical' or 'semiclassical'; for the latter, semiclassical holds lambda_in12_kJ_per_mol,
+    #: lambda_out12_kJ_per_mol, hbar_omega_cm1, log10_quantum_factor (log10 Q, Q = 1 at dG0' = 0) and
+    #: inner_from (couple id -> 'lambda_in', 'bonds' or 'default'); log10_k_act and log10_k_obs include Q.
+    rate_model: str = "classical"
+    semiclassical: dict | None = None
 
     @property
     def k_obs(self) -> float:

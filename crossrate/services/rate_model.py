@@ -1,0 +1,160 @@
+"""The rate model of a cross-rate prediction: classical (the Marcus cross relation, the default) or
+semiclassical (the same, bent by a quantized high-frequency mode).
+
+Semiclassical: the pair's lambda12 is split into an inner, high-frequency part lambda_v12 and an outer,
+classical part lambda_s12 = lambda12 - lambda_v12 (crossrate.core.semiclassical.pair_inner_lambda, from each
+couple's lambda_in or bonds; DEFAULT_INNER_FRACTION of its lambda where it gives neither), with one mode of
+energy hbar omega (the option, or DEFAULT_HBAR_OMEGA_CM1). The activation-controlled cross rate is the
+classical one times the quantum factor Q(Delta G deg') of crossrate.core.semiclassical.ln_quantum_factor:
+the Marcus–Levich–Jortner rate over the classical rate at the same lambda, normalized to Q = 1 at
+Delta G deg' = 0. Why: the cross relation is built on the measured self-exchange rates, which are rates at
+Delta G deg' = 0; a factor that is 1 there keeps the prediction anchored on them (a self-exchange
+"predicted" with itself still returns its measured rate) and changes only how the rate follows the driving
+force, above all in the inverted region, where the quantized mode makes it fall far more gently.
+"""
+
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from ..core.cross_rate import CrossRateArrays
+from ..core.diffusion import ln_k_observed
+from ..core.regime import diffusion_controlled
+from ..errors import ConditionsError
+from .couple_lambda import LAMBDA_IN_BONDS, LAMBDA_IN_FIELD, lambda_columns
+
+RATE_MODELS = ("classical", "semiclassical")
+#: Energy of the quantized mode when neither the option nor the couples give one: 1500 cm^-1, a C=C/C=O
+#: skeletal stretch (common practice for organic couples; metal-ligand stretches lie nearer 300-500 cm^-1,
+#: from memory, and are then nearly classical at room temperature).
+DEFAULT_HBAR_OMEGA_CM1 = 1500.0
+HBAR_OMEGA_RANGE_CM1 = (100.0, 5000.0)
+#: Inner (high-frequency) share of a couple's lambda when it gives no lambda_in or bonds (a documented
+#: assumption, not a measurement; said in the warnings).
+DEFAULT_INNER_FRACTION = 0.25
+#: J/mol per cm^-1: h c (100 cm/m) N_A (exact SI values).
+J_PER_MOL_PER_CM1 = 6.62607015e-34 * 299792458.0 * 100.0 * 6.02214076e23
+#: Up to this many pairs ln Q is summed exactly for each; beyond (Monte Carlo draws) it is interpolated.
+_EXACT_UP_TO = 2000
+_SOURCES = {LAMBDA_IN_FIELD: "lambda_in", LAMBDA_IN_BONDS: "bonds"}
+
+
+def check_rate_model(model: str, hbar_omega_cm1: float | None) -> None:
+    """ConditionsError for an unknown model name or an hbar omega outside 100-5000 cm^-1."""
+    if model not in RATE_MODELS:
+        raise ConditionsError(f"rate model {model!r}: expected {' or '.join(RATE_MODELS)}")
+    if hbar_omega_cm1 is not None:
+        lo, hi = HBAR_OMEGA_RANGE_CM1
+        w = hbar_omega_cm1
+        if isinstance(w, bool) or not isinstance(w, int | float) or not (np.isfinite(w) and lo <= w <= hi):
+            raise ConditionsError(f"hbar omega {w!r} cm^-1: expected {lo:g} to {hi:g} cm^-1")
+
+
+@dataclass(frozen=True)
+class QuantumModel:
+    """Inner parts of the two couples' lambdas (J/mol, NaN = not given), where they came from ('lambda_in',
+    'bonds' or 'default'), and the mode's energy (cm^-1)."""
+
+    lambda_in11_J: float
+    lambda_in22_J: float
+    sources: tuple[str, str]
+    hbar_omega_cm1: float
+
+    def inner_lambda(self, res: CrossRateArrays):
+        """(lambda_v12, clipped) for the pairs of res (J/mol)."""
+        from ..core.semiclassical import pair_inner_lambda
+
+        return pair_inner_lambda(res.lambda11, res.lambda22, self.lambda_in11_J, self.lambda_in22_J,
+                                 DEFAULT_INNER_FRACTION)
+
+    def _exact(self, dG0p, lam11, lam22, T_K):
+        from ..core.semiclassical import ln_quantum_factor, pair_inner_lambda
+
+        lv12, _ = pair_inner_lambda(lam11, lam22, self.lambda_in11_J, self.lambda_in22_J, DEFAULT_INNER_FRACTION)
+        lam = 0.5 * (np.asarray(lam11, dtype=float) + np.asarray(lam22, dtype=float))
+        ok = np.isfinite(lam) & (lam > 0) & np.isfinite(dG0p)
+        safe_lam = np.where(ok, lam, 1.0)
+        safe_lv = np.where(ok, lv12, 0.0)
+        q = ln_quantum_factor(np.where(ok, dG0p, 0.0), safe_lam - safe_lv, safe_lv,
+                              self.hbar_omega_cm1 * J_PER_MOL_PER_CM1, T_K)
+        return np.where(ok, q, 0.0)
+
+    def ln_factor(self, res: CrossRateArrays, T_K: float):
+        """ln Q at each pair of res (0 where lambda12 is not a usable positive number). For many pairs
+        (Monte Carlo draws around one prediction) ln Q is computed exactly on a 9 x 9 x 9 grid spanning the
+        draws in (dG0', lambda11, lambda22) and interpolated linearly (error < 0.01 in ln Q for the usual
+        spreads: the grid step is about one SD of the inputs)."""
+        x = np.asarray(res.dG0_prime, dtype=float)
+        l11 = np.broadcast_to(np.asarray(res.lambda11, dtype=float), x.shape)
+        l22 = np.broadcast_to(np.asarray(res.lambda22, dtype=float), x.shape)
+        if x.size <= _EXACT_UP_TO or not (np.all(np.isfinite(l11)) and np.all(np.isfinite(l22))
+                                          and np.all(np.isfinite(x))):
+            return self._exact(x, l11, l22, T_K)
+        axes = [np.linspace(v.min(), v.max(), 9) if v.max() > v.min() else np.array([v.min(), v.min() + 1.0])
+                for v in (x, l11, l22)]
+        G = np.meshgrid(*axes, indexing="ij")
+        return _trilinear(self._exact(G[0], G[1], G[2], T_K), axes, (x, l11, l22))
+
+    def apply(self, res: CrossRateArrays, T_K: float, diffusion: bool) -> CrossRateArrays:
+        """res with k_act multiplied by Q and k_obs, the diffusion flag recomputed."""
+        ln_act = np.asarray(res.ln_k_act, dtype=float) + self.ln_factor(res, T_K)
+        ln_obs = ln_k_observed(ln_act, res.ln_k_diff) if diffusion else ln_act
+        return replace(res, ln_k_act=ln_act, ln_k_obs=ln_obs,
+                       diffusion_controlled=diffusion_controlled(ln_act, res.ln_k_diff) & bool(diffusion))
+
+
+def _trilinear(table, axes, points):
+    """Linear interpolation in a table on a regular 3-D grid (axes: evenly spaced node arrays) at points
+    (three arrays of equal shape, inside the grid)."""
+    idx, frac = [], []
+    for ax, v in zip(axes, points, strict=True):
+        t = np.clip((v - ax[0]) / (ax[1] - ax[0]), 0.0, ax.size - 1.0)
+        i = np.minimum(t.astype(np.int64), ax.size - 2)
+        idx.append(i)
+        frac.append(t - i)
+    out = np.zeros(np.shape(points[0]))
+    for corner in range(8):
+        d = [(corner >> k) & 1 for k in range(3)]
+        w = np.ones_like(out)
+        for k in range(3):
+            w = w * (frac[k] if d[k] else 1.0 - frac[k])
+        out += w * table[idx[0] + d[0], idx[1] + d[1], idx[2] + d[2]]
+    return out
+
+
+def quantum_model(couple_set, indices, hbar_omega_cm1: float | None) -> QuantumModel:
+    """The QuantumModel of the pair of couples at positions indices (oxidant, reductant) of couple_set."""
+    cols = lambda_columns(couple_set)
+    i, j = (int(k) for k in indices)
+    return QuantumModel(
+        lambda_in11_J=float(cols.lambda_in_J[i]), lambda_in22_J=float(cols.lambda_in_J[j]),
+        sources=(_SOURCES.get(int(cols.lambda_in_from[i]), "default"),
+                 _SOURCES.get(int(cols.lambda_in_from[j]), "default")),
+        hbar_omega_cm1=float(hbar_omega_cm1 if hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1),
+    )
+
+
+def semiclassical_summary(q: QuantumModel, res: CrossRateArrays, T_K: float, ids, hbar_given: bool):
+    """(dict for the Prediction record, warnings) of a semiclassical prediction at its central values."""
+    lv12, clipped = q.inner_lambda(res)
+    lam = float(np.asarray(res.lambda12))
+    lnq = float(np.asarray(q.ln_factor(res, T_K)))
+    info = {
+        "lambda_in12_kJ_per_mol": float(np.asarray(lv12)) / 1e3,
+        "lambda_out12_kJ_per_mol": (lam - float(np.asarray(lv12))) / 1e3,
+        "hbar_omega_cm1": q.hbar_omega_cm1,
+        "log10_quantum_factor": lnq / np.log(10.0),
+        "inner_from": {ids[0]: q.sources[0], ids[1]: q.sources[1]},
+    }
+    warnings = []
+    for cid, src in zip(ids, q.sources, strict=True):
+        if src == "default":
+            warnings.append(f"semiclassical model: {cid} gives no lambda_in or bonds; its inner (high-frequency) "
+                            f"part is taken as {DEFAULT_INNER_FRACTION:.0%} of its lambda (a default)")
+    if bool(np.any(clipped)):
+        warnings.append("semiclassical model: a couple's lambda_in exceeds 95 % of the lambda read from its "
+                        "k_self; its inner part was held to 95 %")
+    if not hbar_given:
+        warnings.append(f"semiclassical model: hbar omega {q.hbar_omega_cm1:g} cm^-1 (the default; "
+                        "--hbar-omega to change)")
+    return info, warnings
