@@ -55,6 +55,12 @@ def register(subparsers) -> None:
                    help="keep pairs with Delta G deg <= KJ (kJ/mol)")
     f.add_argument("--tag", default=None, metavar="TAG", help="keep partners carrying this tag")
     f.add_argument("--top", type=positive_int, default=None, metavar="N", help="show at most N partners")
+    c = p.add_argument_group("computed candidates (instead of the library's couples)")
+    c.add_argument("--candidates", metavar="TABLE.csv", help="screen against this CSV of computed couples: id, "
+                   "charge_ox, charge_red, E (V), radius (angstrom) and k_self (M^-1 s^-1) or lambda_total "
+                   "(kJ/mol), taken at the screen's conditions; checked like a library file (file:line:column)")
+    c.add_argument("--candidate-scale", default="SHE", metavar="KEY",
+                   help="potential scale of the candidates' E (default SHE)")
     add_format_option(p, choices=("table", "json", "csv"), default="table")
     p.set_defaults(func=run)
 
@@ -69,6 +75,10 @@ def run(args) -> int:
 
     conditions = conditions_from_args(args)
     couple_set = load_set(args)
+    if args.candidates is not None:
+        from .render_candidates import run_candidates
+
+        return run_candidates(args, couple_set, conditions)
     if args.tag:
         from ..errors import ConditionsError
         from ..services.rate_map import ids_with_tag
