@@ -61,4 +61,8 @@ def run(args) -> int:
               file=sys.stderr)
     else:
         sys.stdout.write(text)
+    if result.E_not_carried:
+        # The CSV matrix has no place for it: say it beside, on stderr (the JSON has E_not_carried).
+        print(f"crossrate map: E was not carried for {', '.join(result.E_not_carried)} (measured in another medium, "
+              "used as given)", file=sys.stderr)
     return 0

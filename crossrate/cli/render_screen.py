@@ -35,6 +35,9 @@ def count_line(result) -> str:
         text += f" {result.not_computable} left out as not computable: {why}."
     else:
         text += " None left out as not computable."
+    if result.E_not_carried:
+        text += (f" E was not carried for {', '.join(result.E_not_carried)}: measured in another medium, used as "
+                 "given (--allow-E-other-medium).")
     return text
 
 
@@ -158,5 +161,6 @@ def screen_json(result) -> dict:
         "not_computable": result.not_computable,
         "not_computable_reasons": {reason: n for reason, n in result.not_computable_reasons},
         "filtered_out": result.filtered_out,
+        "E_not_carried": list(result.E_not_carried),
         "results": result.records(),
     }

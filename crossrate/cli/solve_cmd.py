@@ -105,6 +105,10 @@ def _k_self_lines(r) -> list[str]:
         lo, hi = r.log10_k_self_95
         out.append(f"k_self = {r.k_self:.3g} M^-1 s^-1 (log10 {r.log10_k_self:.3f}, 95 % [{lo:.2f}, {hi:.2f}]); "
                    f"lambda = {r.lambda_unknown_kJ_per_mol:.1f} kJ/mol")
+    if r.log10_k_self_second_root is not None:
+        where = ("the forward reaction's inverted region" if r.second_root_region == "inverted"
+                 else "the reverse reaction's inverted region (the forward one is uphill)")
+        out.append(f"second root: log10 k_self {r.log10_k_self_second_root:.3f}, in {where}")
     if r.library_log10_k_self is not None:
         out.append(f"library: log10 k_self {r.library_log10_k_self:.2f} as listed"
                    + (f", {r.library_log10_k_self_at_conditions:.2f} at these conditions"

@@ -51,6 +51,8 @@ class ScreenResult(_Record):
     #: "invented", "unverified" or "verified" for the target and for each kept partner.
     target_provenance: str = ""
     partner_provenance: tuple[str, ...] = ()
+    #: Couples of the shown rows whose potential, measured in another medium, was used as given (not carried).
+    E_not_carried: tuple[str, ...] = ()
 
     def __len__(self) -> int:
         return len(self.partner)
@@ -185,4 +187,16 @@ def screen(
         not_computable=int((~ok).sum()),
         not_computable_reasons=tuple(sorted(reasons.items())),
         filtered_out=int(ok.sum()) - int(rows.size),
+        E_not_carried=_E_not_carried(couple_set, ox[rows], red[rows], cond),
     )
+
+
+def _E_not_carried(cs: CoupleSet, ox, red, cond: Conditions) -> tuple[str, ...]:
+    """Ids (library order) of the couples in the kept pairs whose potential was measured in another medium than
+    the pair's (conditions' medium, else the oxidant's) and used as given (allow_E_other_medium)."""
+    if not cond.allow_E_other_medium or ox.size == 0:
+        return ()
+    a = cs.arrays
+    pair_medium = np.full(ox.shape, cond.medium, dtype=object) if cond.medium is not None else a.medium[ox]
+    used = set(ox[a.medium[ox] != pair_medium].tolist()) | set(red[a.medium[red] != pair_medium].tolist())
+    return tuple(a.ids[i] for i in sorted(used))

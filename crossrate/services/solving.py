@@ -7,7 +7,8 @@ removing the diffusion limit (1/k_act = 1/k_obs - 1/k_D). Roots are bracketed an
 
 * k_self: ln k12 rises with ln k11 while lambda12 > |Delta G deg'| (the normal side), so the normal-branch
   root is unique; a second root exists only when a very fast unknown would bring lambda12 below
-  |Delta G deg'| (the inverted side), and is reported beside it.
+  |Delta G deg'|, and is reported beside it, named for where it lies: the forward reaction's inverted region
+  for a downhill pair, the reverse reaction's for an uphill one.
 * E: ln k12 is quadratic in Delta G deg', with its maximum at -Delta G deg' = lambda12; a rate below the
   maximum gives two potentials, one on the normal side (reported first) and one on the inverted side.
 """
@@ -51,7 +52,10 @@ class KSelfSolution(_Record):
     """Apparent self-exchange rate constant of `unknown` at the stated conditions (log10 M^-1 s^-1).
 
     log10_k_self is None when the measured rate is diffusion-limited; then log10_k_self_lower_bound holds
-    the value that k_act >= k_obs guarantees. log10_k_self_inverted: the second root, if one exists.
+    the value that k_act >= k_obs guarantees. log10_k_self_second_root: the second root, if one exists (a
+    faster unknown with lambda12 < |Delta G deg'|); second_root_region names where it lies: "inverted" (the
+    forward reaction in its inverted region, -Delta G deg' > lambda12) or "reverse inverted" (a strongly uphill
+    forward reaction, Delta G deg' > lambda12: the reverse reaction is in its inverted region, not the forward).
     library_log10_k_self: the library's own value as listed; _at_conditions: carried to these conditions.
     """
 
@@ -68,7 +72,7 @@ class KSelfSolution(_Record):
     log10_k_self_95: tuple[float, float] | None
     log10_k_self_sd: float | None
     log10_k_self_lower_bound: float | None
-    log10_k_self_inverted: float | None
+    log10_k_self_second_root: float | None
     lambda_unknown_kJ_per_mol: float | None
     library_log10_k_self: float | None
     library_log10_k_self_at_conditions: float | None
@@ -78,6 +82,18 @@ class KSelfSolution(_Record):
     diffusion_limited: bool
     explanation: str
     warnings: tuple[str, ...]
+    second_root_region: str | None = None
+
+
+#: Names of the second k_self root by the sign of Delta G deg' (see KSelfSolution).
+SECOND_ROOT_FORWARD_INVERTED = "inverted"
+SECOND_ROOT_REVERSE_INVERTED = "reverse inverted"
+
+
+def second_root_region(dG0_prime_J_per_mol: float) -> str:
+    """Where the second k_self root lies: the forward reaction's inverted region when the pair is downhill
+    (Delta G deg' < 0), the reverse reaction's when it is uphill (lambda12 < Delta G deg' there)."""
+    return SECOND_ROOT_FORWARD_INVERTED if dG0_prime_J_per_mol < 0 else SECOND_ROOT_REVERSE_INVERTED
 
 
 def _k_self_roots(s: PairSetup, target: float, **others) -> tuple[float, float | None]:
@@ -165,7 +181,7 @@ def solve_k_self(
         bound, _ = _k_self_roots(s, ln_meas - Z95 * sd * LN10)
         return KSelfSolution(
             log10_k_self=None, k_self=None, log10_k_self_95=None, log10_k_self_sd=None,
-            log10_k_self_lower_bound=bound / LN10, log10_k_self_inverted=None, lambda_unknown_kJ_per_mol=None,
+            log10_k_self_lower_bound=bound / LN10, log10_k_self_second_root=None, lambda_unknown_kJ_per_mol=None,
             explanation=(
                 f"the measured rate is at the diffusion limit (k_D = 10^{s.ln_k_diff / LN10:.2f} M^-1 s^-1): "
                 "it fixes k_D, not the activation step, so no k_self can be backed out; k_self is at least "
@@ -201,15 +217,19 @@ def solve_k_self(
     )
     if lib_at is not None:
         text += f"; the library's value carried here is 10^{lib_at:.2f} ({ly - lib_at:+.2f} in log10)"
+    region = None
     if y_inv is not None:
-        text += (
-            f"; a second root, 10^{y_inv / LN10:.2f}, would put the pair in the inverted region and is "
-            "shown for completeness only"
+        region = second_root_region(float(res.dG0_prime))
+        where = (
+            "the pair in the inverted region (-Delta G deg' > lambda12)" if region == SECOND_ROOT_FORWARD_INVERTED
+            else "lambda12 below the uphill Delta G deg' (the reverse reaction in its inverted region; the forward "
+            "one is endergonic, not inverted)"
         )
+        text += f"; a second root, 10^{y_inv / LN10:.2f}, would put {where} and is shown for completeness only"
     return KSelfSolution(
         log10_k_self=ly, k_self=10.0**ly, log10_k_self_95=(ly - Z95 * sd_y, ly + Z95 * sd_y), log10_k_self_sd=sd_y,
-        log10_k_self_lower_bound=None, log10_k_self_inverted=None if y_inv is None else y_inv / LN10,
-        lambda_unknown_kJ_per_mol=lambda_kJ(s, y), explanation=text, **common,
+        log10_k_self_lower_bound=None, log10_k_self_second_root=None if y_inv is None else y_inv / LN10,
+        lambda_unknown_kJ_per_mol=lambda_kJ(s, y), explanation=text, second_root_region=region, **common,
     )
 
 

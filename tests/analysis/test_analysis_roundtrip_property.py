@@ -43,9 +43,9 @@ def test_solvers_invert_the_forward_prediction(z1, z2, E1, dE, lk1, lk2, r1, r2,
         return  # outside any measurable rate
     k12 = 10.0**p.log10_k_obs
     sol = solve_k_self(cs, "ox", "red", k12, role="oxidant", conditions=cond)
-    roots = [sol.log10_k_self] + ([sol.log10_k_self_inverted] if sol.log10_k_self_inverted is not None else [])
+    roots = [sol.log10_k_self] + ([sol.log10_k_self_second_root] if sol.log10_k_self_second_root is not None else [])
     assert min(abs(r - p.log10_k11) for r in roots) < 1e-6
-    if sol.log10_k_self_inverted is None:
+    if sol.log10_k_self_second_root is None:
         assert sol.log10_k_self == pytest.approx(p.log10_k11, abs=1e-6)
     pot = solve_potential(cs, "red", "ox", k12, role="reductant", conditions=cond)
     assert min(abs(E - (E1 - dE)) for E in pot.E_V) < 1e-6

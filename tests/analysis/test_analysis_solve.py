@@ -99,8 +99,8 @@ def test_activationless_pair_has_a_second_k_self_root(analysis_set):
     p = predict(analysis_set, "hl-bpy", "hl-cyano", cond, samples=0)
     assert p.regime == "activationless"
     sol = solve_k_self(analysis_set, "hl-bpy", "hl-cyano", 10.0**p.log10_k_obs, role="oxidant", conditions=cond)
-    assert sol.log10_k_self_inverted == pytest.approx(p.log10_k11, abs=1e-6)
-    assert sol.log10_k_self < sol.log10_k_self_inverted
+    assert sol.log10_k_self_second_root == pytest.approx(p.log10_k11, abs=1e-6)
+    assert sol.log10_k_self < sol.log10_k_self_second_root
     assert "second root" in sol.explanation
 
 
@@ -214,3 +214,35 @@ def test_potential_comes_back_on_the_unknowns_own_scale_and_ground_state():
         sol = solve_potential(cs, cid, "p", k12, role="oxidant")
         assert sol.E_scale == cs[cid].E_scale
         assert sol.E_V[0] == pytest.approx(cs[cid].E, abs=1e-6)
+
+
+def _neutral_couple(cid, E, k):
+    from crossrate.library.couple import Couple
+
+    # Charges 1/0 on both couples: every work term of the cross reaction is zero (z_ox1 z_red2 = z_red1 z_ox2 = 0).
+    return Couple(id=cid, name=cid, charge_ox=1, charge_red=0, E=E, E_scale="SHE", radius=4.0, medium="water",
+                  ionic_strength=0.1, temperature=298.15, source="invented for a test", k_self=k, verified=True)
+
+
+@pytest.mark.parametrize("E_unknown, region", [(-0.7, "reverse inverted"), (0.7, "inverted")])
+def test_second_k_self_root_is_named_for_where_it_lies(E_unknown, region):
+    from crossrate.library.couple_set import CoupleSet
+
+    # lambda_ii = 4 RT ln(Z/k_ii) (no work terms): a very fast unknown (k_self 1e10, lambda 22.8 kJ/mol) and a
+    # partner with k_self 1e8 (lambda 68.5 kJ/mol) give lambda12 = 45.7 kJ/mol, below |Delta G deg| = 0.7 eV =
+    # 67.5 kJ/mol (Delta G deg = -F (E1 - E2), common practice). With the unknown as the oxidant at E = -0.7 V
+    # the forward reaction is uphill by 0.7 eV: the library's k_self is the root where the *reverse* reaction is
+    # inverted. At E = +0.7 V it is downhill by 0.7 eV and the same root lies in the forward inverted region
+    # (intrinsic barrier (lambda12 + dG)^2 / 4 lambda12 = 2.6 kJ/mol > RT: past the activationless band).
+    cs = CoupleSet([_neutral_couple("unk", E_unknown, 1e10), _neutral_couple("ptn", 0.0, 1e8)])
+    cond = Conditions(diffusion=False)
+    p = predict(cs, "unk", "ptn", cond, samples=0)
+    assert abs(p.dG0_prime_kJ_per_mol) > p.lambda_kJ_per_mol
+    assert p.regime == ("endergonic" if E_unknown < 0 else "inverted")
+    sol = solve_k_self(cs, "unk", "ptn", 10.0**p.log10_k_obs, role="oxidant", conditions=cond)
+    assert sol.log10_k_self_second_root == pytest.approx(10.0, abs=1e-6)
+    assert sol.second_root_region == region
+    assert sol.to_dict()["second_root_region"] == region
+    if region == "reverse inverted":
+        assert "reverse reaction in its inverted region" in sol.explanation
+        assert "pair in the inverted region" not in sol.explanation
