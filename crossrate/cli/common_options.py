@@ -87,7 +87,7 @@ def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: s
     )
     g.add_argument(
         "--Z", type=positive_float, default=DEFAULT_Z, metavar="VALUE",
-        help=f"collision factor Z in M^-1 s^-1, 1e9 to 1e13 (default {DEFAULT_Z:g})",
+        help=f"collision factor Z in M^-1 s^-1, 1e9 to 1e13 (default {DEFAULT_Z:g}; held constant in temperature)",
     )
     g.add_argument("--no-diffusion", action="store_true", help="do not cap the rate at the diffusion limit")
 

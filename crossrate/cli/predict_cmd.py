@@ -19,7 +19,11 @@ DEFAULT_SAMPLES = 20000
 
 EPILOG = (
     "The 95 % interval of k_obs comes from Monte Carlo draws of E and log k_self of both couples (their E_sd\n"
-    "and k_self_log10_sd; couples without them get the defaults 10 mV and 0.3, and the warnings say so).\n\n"
+    "and k_self_log10_sd; couples without them get the defaults 10 mV and 0.3, and the warnings say so).\n"
+    "Formal potentials are carried to the target ionic strength (extended Debye-Hueckel) and temperature\n"
+    "(dE_dT, else E held with its SD grown by 1 mV/K); never to another solvent (see --allow-E-other-medium).\n"
+    "Z is held constant in temperature (not scaled as sqrt(T)). Warnings mark water's correlations outside\n"
+    "273-373 K, Debye-Hueckel screening far past dilute solution, and a large work-term factor W12.\n\n"
     "\n" + CAUTION
 )
 

@@ -26,6 +26,7 @@ from .uncertainty import (
     linear_sd,
     monte_carlo,
 )
+from .validity_warnings import validity_warnings
 
 LN10 = float(np.log(10.0))
 #: Seed of the Monte Carlo interval when none is given (the CLI's default too), so a prediction is reproducible.
@@ -271,6 +272,7 @@ def predict(
         rc.warnings
         + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium)
         + pair_warnings(ox, red, rc, res, estimated, defaulted)
+        + validity_warnings(ox, red, rc, float(np.asarray(res.ln_W12)))
     )
     flat = flat_model_note(
         flatness(grad, spread.as_array(), rc.temperature_K),
