@@ -3,7 +3,7 @@
 import math
 
 import pytest
-from tui_fixtures import run_async, small_couples
+from tui_fixtures import run_async, settle, small_couples
 from tui_screen_text import screen_text
 
 from crossrate.library.couple_set import CoupleSet
@@ -31,10 +31,8 @@ def _app(cs=None):
 
 
 async def _settle(pilot, screen):
-    """Let the Monte Carlo worker finish so the panel shows the final interval."""
-    while any(not w.is_finished for w in pilot.app.workers):
-        await pilot.pause(0.01)
-    await pilot.pause()
+    """Let typed conditions be read and the Monte Carlo worker finish (the panel shows the final interval)."""
+    await settle(pilot)
 
 
 @run_async
@@ -132,7 +130,7 @@ async def test_bad_condition_keeps_last_good_prediction_and_explains():
         assert f"k_obs {10 ** good.log10_k_obs:.2e}" in screen_text(app)  # pair bar keeps the good value
         assert screen.query_one("#cond-T").has_class("-bad")
         await pilot.press(*["backspace"] * 4, *"abc")
-        await pilot.pause()
+        await _settle(pilot, screen)
         assert "'abc' is not a number" in str(screen.query_one("#cond-message").content)
         # Z accepts exponent notation; a non-positive Z is refused with its own message
         await pilot.press("tab", "tab", "tab")
@@ -212,7 +210,7 @@ async def test_measured_check_and_curve_mark():
         await _settle(pilot, screen)
         k = 10 ** (screen.prediction.log10_k_obs + 2.0)  # 100x faster than predicted
         await pilot.press(*f"{k:.4e}")
-        await pilot.pause()
+        await _settle(pilot, screen)
         text = screen_text(app)
         assert "beyond" in text or "more than a factor of 10" in text
         assert "log10 +2.00" in text
@@ -360,7 +358,7 @@ async def test_bad_condition_is_shown_in_the_pair_bar_and_a_pair_problem_in_the_
     async with app.run_test(size=(100, 30)) as pilot:
         screen = await _ready(pilot)
         await pilot.press("o", "down", "r", "2", "tab", *["backspace"] * 6)
-        await pilot.pause()
+        await _settle(pilot, screen)
         bar = " ".join(str(screen.query_one("#pair-bar").content).split())
         assert "! temperature: empty; expected a number (K); k_obs above is for the last good conditions" in bar
         await pilot.press(*"300")
@@ -406,7 +404,7 @@ def test_every_key_is_in_the_help_and_every_action_in_the_palette():
     con_text = con.export_text()
     actions = {a.split("(")[0] for _t, _h, a, _k in ACTIONS}
     # navigation keys are described together in the help ("↑ ↓ PgUp PgDn", "Home End", "tab / esc")
-    navigation = {"move", "page", "jump", "leave_input", "scroll_result", "choose"}
+    navigation = {"move", "page", "jump", "leave_input", "move_focus", "scroll_result", "choose"}
     for cls in (WorkbenchScreen, CoupleTable, HeatMap):
         for b in cls.BINDINGS:
             name = b.action.split("(")[0]

@@ -60,3 +60,36 @@ def run_async(fn):
         return asyncio.run(fn(*args, **kwargs))
 
     return wrapper
+
+
+async def settle(pilot):
+    """Wait until text typed into the conditions or the check has been read (their quiet time has passed) and
+    no worker runs any more, then one more refresh."""
+    app = pilot.app
+    await pilot.pause(0.05)  # keys sent in a burst are handled first (they start the quiet time)
+    for _ in range(1000):
+        pending = any(getattr(w, "pending", False) for w in app.screen.query("ConditionsForm, CheckPanel"))
+        if not pending and all(w.is_finished for w in app.workers):
+            break
+        await pilot.pause(0.01)
+    await pilot.pause()
+
+
+def burst(app, keys) -> None:
+    """Send keys to the app all at once, without waiting for any to be handled (as a fast typist on a slow
+    link or a paste without bracketed-paste mode delivers them); the same key events Pilot.press makes."""
+    import unicodedata
+
+    from textual import events
+    from textual.app import REPLACED_KEYS, _character_to_key, _get_unicode_name_from_key
+
+    for key in keys:
+        if len(key) == 1 and not key.isalnum():
+            key = _character_to_key(key)
+        try:
+            char = unicodedata.lookup(_get_unicode_name_from_key(REPLACED_KEYS.get(key, key)))
+        except KeyError:
+            char = key if len(key) == 1 else None
+        event = events.Key(key, char)
+        event.set_sender(app)
+        app._driver.send_message(event)

@@ -7,7 +7,7 @@ user is offered a reload, with the form kept as typed. Leaving with unsaved edit
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.screen import Screen
-from textual.widgets import Footer, Input, Label, Select, Static
+from textual.widgets import Footer, Input, Label, OptionList, Select, Static
 
 from ...errors import ConflictError, CrossrateError
 from ..widgets.couple_form import CoupleForm
@@ -23,8 +23,29 @@ class EditorScreen(Screen[str | None]):
     CSS_PATH = "editor.tcss"
     BINDINGS = [
         Binding("ctrl+s", "save", "save", priority=True),
-        Binding("escape", "cancel", "close"),
+        Binding("escape", "cancel", "close", priority=True),
+        # Moving between fields acts before the next key is handed to a field (widgets/field_input.py), so
+        # text typed right after tab or down lands in the new field.
+        Binding("tab", "move_focus(1)", show=False, priority=True),
+        Binding("shift+tab", "move_focus(-1)", show=False, priority=True),
+        Binding("down", "field_step(1)", "next field", show=False, priority=True),
+        Binding("up", "field_step(-1)", "previous field", show=False, priority=True),
     ]
+
+    def check_action(self, action: str, parameters) -> bool | None:
+        # The file's drop-down list uses esc, tab and the arrows itself while open; up and down move between
+        # fields only from a text field (on the file choice they are the list's own keys).
+        if action in ("cancel", "move_focus") and isinstance(self.focused, OptionList):
+            return False
+        if action == "field_step" and not isinstance(self.focused, Input):
+            return False
+        return True
+
+    def action_move_focus(self, step: int) -> None:
+        self.focus_next() if step > 0 else self.focus_previous()
+
+    def action_field_step(self, step: int) -> None:
+        self.action_move_focus(step)
 
     def __init__(self, mode: str, couple, files: list[tuple[str, str]], get_set, reload_library):
         """get_set() -> the current CoupleSet (its file hashes are what writes are checked against);

@@ -12,6 +12,7 @@ from ..widgets.conditions_form import ConditionsForm
 from ..widgets.couple_detail import CoupleDetail
 from ..widgets.couple_table import CoupleTable
 from ..widgets.energy_plot import EnergyPlot
+from ..widgets.field_input import FieldInput
 from ..widgets.heat_map import HeatMap
 from ..widgets.pair_bar import PairBar
 from ..widgets.prediction_panel import PredictionPanel
@@ -46,7 +47,11 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         Binding("ctrl+r", "reload", "reload", show=False),
         Binding("p", "problems", "library problems", show=False),
         Binding("question_mark,f1", "help", "help"),
-        Binding("escape", "leave_input", show=False),
+        # esc, tab and shift+tab move the focus: as priority bindings they act before the next key is handed to
+        # a field, so text typed right after them lands where the user now is (see widgets/field_input.py).
+        Binding("escape", "leave_input", show=False, priority=True),
+        Binding("tab", "move_focus(1)", show=False, priority=True),
+        Binding("shift+tab", "move_focus(-1)", show=False, priority=True),
         Binding("enter", "toggle_detail", "detail", show=False),
         Binding("pageup", "scroll_result(-1)", show=False),
         Binding("pagedown", "scroll_result(1)", show=False),
@@ -57,7 +62,7 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         yield ViewTabs(id="view-tabs")
         with ContentSwitcher(initial="couples", id="views"):
             with Vertical(id="couples"):
-                yield Input(placeholder="filter: id, name, tag or medium   (/ to search, esc to leave)", id="search", compact=True)
+                yield FieldInput(placeholder="filter: id, name, tag or medium   (/ to search, esc to leave)", id="search", compact=True)
                 with Horizontal(id="couples-body"):
                     yield CoupleTable(id="table")
                     with VerticalScroll(id="detail-scroll"):

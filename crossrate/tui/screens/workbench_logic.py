@@ -5,7 +5,7 @@ Services are imported inside the methods so the first paint does not wait for nu
 
 import time
 
-from textual.widgets import ContentSwitcher, Input, Static
+from textual.widgets import ContentSwitcher, Input, OptionList, Static
 
 from ...errors import CrossrateError
 from ..units import next_unit
@@ -176,6 +176,9 @@ class WorkbenchLogic:
         # Inside a text field '/' is text: the search binding is off there (and hidden from the footer).
         if action == "search" and isinstance(self.focused, Input):
             return False
+        # An open drop-down list (the medium) handles esc and tab itself.
+        if action in ("leave_input", "move_focus") and isinstance(self.focused, OptionList):
+            return False
         return True
 
     def action_search(self) -> None:
@@ -190,6 +193,10 @@ class WorkbenchLogic:
         big = not self.has_class("-detail-big")
         self.set_class(big, "-detail-big")
         self.set_focus(self.query_one("#detail-scroll" if big else "#table"))
+
+    def action_move_focus(self, step: int) -> None:
+        """tab / shift+tab: the next or previous field."""
+        self.focus_next() if step > 0 else self.focus_previous()
 
     def action_leave_input(self) -> None:
         if self.has_class("-detail-big"):

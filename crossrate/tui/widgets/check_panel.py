@@ -10,6 +10,8 @@ from textual.message import Message
 from textual.widgets import Input, Label, Static
 
 from ..units import rate_text
+from .conditions_form import DEBOUNCE_S
+from .field_input import FieldInput
 
 #: Usual reasons a measured rate departs from the cross relation (shown when the service gives none).
 USUAL_CAUSES = (
@@ -32,14 +34,34 @@ class CheckPanel(Vertical):
     def compose(self) -> ComposeResult:
         with Horizontal(id="check-inputs"):
             yield Label("measured k (M⁻¹ s⁻¹) ")
-            yield Input("", placeholder="e.g. 3.5e4", id="check-k", compact=True)
+            yield FieldInput("", placeholder="e.g. 3.5e4", id="check-k", compact=True)
             yield Label("  log10 SD ")
-            yield Input("", placeholder="optional", id="check-sd", compact=True)
+            yield FieldInput("", placeholder="optional", id="check-sd", compact=True)
         with VerticalScroll(id="check-scroll"):
             yield Static("", id="check-result", markup=False)
 
+    _timer = None
+
+    @property
+    def pending(self) -> bool:
+        """True while typed text waits for the quiet time before it is read."""
+        return self._timer is not None
+
     def on_input_changed(self, event: Input.Changed) -> None:
         event.stop()
+        if self._timer is not None:
+            self._timer.stop()
+        self._timer = self.set_timer(DEBOUNCE_S, self.flush)
+
+    def on_input_submitted(self, event: Input.Submitted) -> None:
+        event.stop()
+        self.flush()
+
+    def flush(self) -> None:
+        """Read both fields now and announce the measurement (or mark the bad field)."""
+        if self._timer is not None:
+            self._timer.stop()
+            self._timer = None
         out = self.query_one("#check-result", Static)
         k_box, sd_box = self.query_one("#check-k", Input), self.query_one("#check-sd", Input)
         for box in (k_box, sd_box):
@@ -64,6 +86,9 @@ class CheckPanel(Vertical):
 
     def clear(self) -> None:
         """Empty both inputs without announcing a new measurement."""
+        if self._timer is not None:
+            self._timer.stop()
+            self._timer = None
         for wid in ("#check-k", "#check-sd"):
             box = self.query_one(wid, Input)
             with box.prevent(Input.Changed):

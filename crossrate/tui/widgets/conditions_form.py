@@ -7,9 +7,13 @@ from textual.message import Message
 from textual.widgets import Checkbox, Input, Label, Select, Static
 
 from ...errors import ConditionsError
+from .field_input import FieldInput
 from .plain_checkbox import PlainCheckbox
 
 OWN = "couples' own"
+#: Quiet time after the last keystroke in a field before the conditions are read and passed on, s: a burst of
+#: keys gives one recompute, and the field is never judged (or the prediction redone) half-typed.
+DEBOUNCE_S = 0.12
 
 
 class ConditionsForm(Vertical):
@@ -29,15 +33,29 @@ class ConditionsForm(Vertical):
             self.problem = problem
             super().__init__()
 
+    _timer = None
+
+    @property
+    def pending(self) -> bool:
+        """True while typed text waits for the quiet time before it is read."""
+        return self._timer is not None
+
+    def flush(self) -> None:
+        """Read the fields now (a pending debounce is dropped)."""
+        if self._timer is not None:
+            self._timer.stop()
+            self._timer = None
+        self._changed()
+
     def compose(self) -> ComposeResult:
         yield Label("temperature (K)")
-        yield Input("298.15", id="cond-T", compact=True)
+        yield FieldInput("298.15", id="cond-T", compact=True)
         yield Label("ionic strength (M)")
-        yield Input("", placeholder=OWN, id="cond-I", compact=True)
+        yield FieldInput("", placeholder=OWN, id="cond-I", compact=True)
         yield Label("medium")
         yield Select([], prompt=OWN, id="cond-medium", compact=True)
         yield Label("Z (M⁻¹ s⁻¹)")
-        yield Input("1e11", id="cond-Z", compact=True)
+        yield FieldInput("1e11", id="cond-Z", compact=True)
         yield PlainCheckbox("diffusion cap", True, id="cond-diffusion", compact=True)
         yield PlainCheckbox("allow mixed media", False, id="cond-mixed", compact=True)
         yield Static("", id="cond-message", markup=False)
@@ -100,12 +118,18 @@ class ConditionsForm(Vertical):
 
     def on_input_changed(self, event: Input.Changed) -> None:
         event.stop()
-        self._changed()
+        if self._timer is not None:
+            self._timer.stop()
+        self._timer = self.set_timer(DEBOUNCE_S, self.flush)
+
+    def on_input_submitted(self, event: Input.Submitted) -> None:
+        event.stop()
+        self.flush()
 
     def on_select_changed(self, event: Select.Changed) -> None:
         event.stop()
-        self._changed()
+        self.flush()
 
     def on_checkbox_changed(self, event: Checkbox.Changed) -> None:
         event.stop()
-        self._changed()
+        self.flush()

@@ -1,13 +1,13 @@
 """The couple form: one labelled field per library field (units shown), each checked as it is typed."""
 
 from textual.app import ComposeResult
-from textual.binding import Binding
 from textual.containers import Horizontal, VerticalScroll
 from textual.message import Message
 from textual.widgets import Input, Label, Static
 
 from ...library.couple import Couple
 from ...library.schema import FIELD_SPECS, FIELDS_BY_NAME, parse_field_text
+from .field_input import FieldInput
 
 
 def field_text(c: Couple | None, name: str) -> str:
@@ -48,12 +48,7 @@ def check_text_value(name: str, text: str):
 
 class CoupleForm(VerticalScroll):
     """Fields of one couple. `values()` gives the raw table to write; `problems()` what is wrong.
-    Up and down move between fields (as do tab and shift+tab)."""
-
-    BINDINGS = [
-        Binding("down", "app.focus_next", "next field", show=False),
-        Binding("up", "app.focus_previous", "previous field", show=False),
-    ]
+    Up and down move between fields (as do tab and shift+tab): bindings of the editor screen."""
 
     class Dirty(Message):
         """A field changed (the form may or may not differ from what it opened with: see is_dirty)."""
@@ -67,13 +62,13 @@ class CoupleForm(VerticalScroll):
     def compose(self) -> ComposeResult:
         with Horizontal(classes="form-row"):
             yield Label("id", classes="form-label")
-            yield Input(self._new_id, id="f-id", compact=True)
+            yield FieldInput(self._new_id, id="f-id", compact=True)
         yield Static("", id="m-id", classes="form-message", markup=False)
         for spec in FIELD_SPECS:
             with Horizontal(classes="form-row"):
                 mark = "*" if spec.required and not spec.library_default else " "
                 yield Label(f"{mark}{spec.label}", classes="form-label")
-                yield Input(field_text(self._couple, spec.name), id=f"f-{spec.name}", compact=True,
+                yield FieldInput(field_text(self._couple, spec.name), id=f"f-{spec.name}", compact=True,
                             placeholder=f"(empty) {spec.help}"[:70], tooltip=spec.help)
             yield Static("", id=f"m-{spec.name}", classes="form-message", markup=False)
 
