@@ -21,23 +21,21 @@ EPILOG = (
 
 
 def bond_spec(text: str):
-    """argparse type: COUNT:DELTA_D:F_OX:F_RED (bonds per molecule, angstrom, N/m, N/m) -> BondSet."""
+    """argparse type: COUNT:DELTA_D:F_OX:F_RED (bonds per molecule, angstrom, N/m, N/m) -> BondSet; the same
+    form the workbench's couple form takes (library.bond_text)."""
+    from ..library.bond_text import parse_bond_item
     from ..library.couple import BondSet
 
-    parts = text.split(":")
-    expected = "expected COUNT:DELTA_D:F_OX:F_RED, e.g. 6:0.14:250:160 (count, angstrom, N/m, N/m)"
-    if len(parts) != 4:
-        raise argparse.ArgumentTypeError(f"{text!r}: {expected}")
     try:
-        count = int(parts[0])
-        dd, fo, fr = (float(p) for p in parts[1:])
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"{text!r}: {expected}") from None
-    if count < 1 or not all(math.isfinite(x) for x in (dd, fo, fr)) or fo <= 0 or fr <= 0:
+        b = parse_bond_item(text)
+    except ValueError as exc:
+        raise argparse.ArgumentTypeError(str(exc)) from None
+    if b["count"] < 1 or not all(math.isfinite(b[k]) for k in ("delta_d", "f_ox", "f_red")) or b["f_ox"] <= 0 \
+            or b["f_red"] <= 0:
         raise argparse.ArgumentTypeError(
             f"{text!r}: count must be a whole number >= 1, delta_d finite, force constants > 0 N/m"
         )
-    return BondSet(count=count, delta_d=dd, f_ox=fo, f_red=fr)
+    return BondSet(**b)
 
 
 def charges_spec(text: str) -> tuple[int, int]:

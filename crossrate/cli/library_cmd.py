@@ -68,7 +68,7 @@ def register(subparsers) -> None:
                            default=None, help=f"{s.help} (flag)")
             continue
         unit = f" [{s.unit}]" if s.unit else ""
-        meta = {"number": "X", "integer": "N", "text list": "A,B", "bonds": "TOML"}.get(s.kind, "TEXT")
+        meta = {"number": "X", "integer": "N", "text list": "A,B", "bonds": "COUNT:DD:FOX:FRED[;...]"}.get(s.kind, "TEXT")
         g.add_argument(_field_option(s.name), dest=_FIELD_DEST + s.name, metavar=meta, default=None,
                        choices=s.choices or None, help=f"{s.help}{unit}")
     p.set_defaults(func=run_add)

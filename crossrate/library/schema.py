@@ -214,7 +214,8 @@ def parse_field_text(name: str, text: str):
     """Turn what a user typed in a form into a field value (before validation).
 
     Numbers accept plain decimal or exponent notation; booleans accept true/false/yes/no; text lists
-    accept comma-separated words; bonds accept the TOML inline form. Empty text gives None.
+    accept comma-separated words; bonds accept COUNT:DELTA_D:F_OX:F_RED sets (library.bond_text), the form
+    `crossrate lambda --bonds` takes (the file's inline-table form, as a CSV export writes it, is read too). Empty text gives None.
     Raises ValueError with an 'expected ...' message for text that cannot be read at all.
     """
     spec = FIELDS_BY_NAME[name]
@@ -244,10 +245,14 @@ def parse_field_text(name: str, text: str):
     if spec.kind == "text list":
         return [t.strip() for t in s.split(",") if t.strip()]
     if spec.kind == "bonds":
-        from .toml_loads import loads  # local: only the form needs TOML snippets parsed
+        if s.startswith(("[", "{")):  # the file's own inline-table form (a CSV export writes it so)
+            from .toml_loads import loads  # local: only forms and imports need TOML snippets parsed
 
-        try:
-            return loads(f"bonds = {s}")["bonds"]
-        except ValueError:
-            raise ValueError(f"{s!r}: expected {BONDS_EXPECTED}") from None
+            try:
+                return loads(f"bonds = {s}")["bonds"]
+            except ValueError:
+                raise ValueError(f"{s!r}: expected {BONDS_EXPECTED}") from None
+        from .bond_text import parse_bonds_text
+
+        return parse_bonds_text(s)
     return s

@@ -40,10 +40,10 @@ class CrossrateApp(App):
             return self._given_set, ""
         return library_access.load_layered_set(self.library_paths, **self.layers)
 
-    def lambda_lines(self, couple_set, couple, conditions=None):
+    def lambda_lines(self, couple_set, couple, conditions=None, unit: str = "kJ/mol"):
         from .library_access import lambda_lines
 
-        return lambda_lines(couple_set, couple, conditions)
+        return lambda_lines(couple_set, couple, conditions, unit)
 
     # -- commands -----------------------------------------------------------------------------------------
     def get_system_commands(self, screen) -> Iterable[SystemCommand]:
@@ -61,6 +61,15 @@ class CrossrateApp(App):
 
         if isinstance(self.screen, WorkbenchScreen):
             await self.screen.run_action(action)
+
+    def action_command_palette(self) -> None:
+        """The command palette, its search mark a plain '>' (the README promises plain marks)."""
+        from textual.command import CommandPalette
+
+        from .plain_palette import PlainPalette
+
+        if self.use_command_palette and not CommandPalette.is_open(self):
+            self.push_screen(PlainPalette(id="--command-palette"))
 
     async def action_quit(self) -> None:
         """The palette's "Quit" asks about unsaved edits too, like ctrl+q."""

@@ -39,29 +39,32 @@ def _load_files_only(library_paths):
     return CoupleSet(list(couples.values()), files=files), ""
 
 
-def lambda_lines(couple_set, couple, conditions=None) -> list[str]:
+def lambda_lines(couple_set, couple, conditions=None, unit: str = "kJ/mol") -> list[str]:
     """The reorganization-energy breakdown of a couple (inner, outer, work; measured beside the estimate),
-    as lines for the detail panel, from services.lambda_estimate; one line with the reason when it fails."""
+    as lines for the detail panel, from services.lambda_estimate, energies in `unit` (kJ/mol, kcal/mol or
+    eV); one line with the reason when it fails."""
     from ..services.lambda_estimate import lambda_breakdown
+    from .units import energy_text
 
     try:
         b = lambda_breakdown(couple_set, couple.id, conditions=conditions)
     except CrossrateError as exc:
         return [f"not available: {exc}"]
 
-    def kj(v):
-        return "-" if v is None else f"{v:.1f} kJ/mol"
+    def en(v, signed=False):
+        return "-" if v is None else energy_text(v, unit, signed=signed)
 
+    sd = en(b.lambda_estimate_sd_kJ_per_mol).split()[0]
     out = [
         f"at {b.temperature_K:g} K, {b.ionic_strength_M:g} M, {b.medium}",
-        f"λ_in   {kj(b.lambda_in_kJ_per_mol)}  ({b.lambda_in_source})",
-        f"λ_out  {kj(b.lambda_out_kJ_per_mol)}  (two-sphere, Pekar {b.pekar_factor:.3f})",
-        f"λ est. {b.lambda_estimate_kJ_per_mol:.1f} ± {b.lambda_estimate_sd_kJ_per_mol:.1f} kJ/mol ({b.estimate_label})",
-        f"w_ii   {b.work_kJ_per_mol:.2f} kJ/mol",
+        f"λ_in   {en(b.lambda_in_kJ_per_mol)}  ({b.lambda_in_source})",
+        f"λ_out  {en(b.lambda_out_kJ_per_mol)}  (two-sphere, Pekar {b.pekar_factor:.3f})",
+        f"λ est. {en(b.lambda_estimate_kJ_per_mol).split()[0]} ± {sd} {unit} ({b.estimate_label})",
+        f"w_ii   {en(b.work_kJ_per_mol, signed=True)}",
         f"k_self implied 10^{b.log10_k_self_estimate:.2f} M⁻¹ s⁻¹",
     ]
     if b.lambda_measured_kJ_per_mol is not None:
-        out.append(f"λ from measured k_self {kj(b.lambda_measured_kJ_per_mol)}")
+        out.append(f"λ from measured k_self {en(b.lambda_measured_kJ_per_mol)}")
     if b.k_self_used_how:
         out.append(f"predictions use: {b.k_self_used_how}")
     return out

@@ -234,7 +234,7 @@ def test_check_field_for_forms():
     assert "did you mean k_self" in check_field("k_slef", 1.0)[1]
     assert parse_field_text("tags", "aqua, spin-change") == ["aqua", "spin-change"]
     assert parse_field_text("verified", "yes") is True
-    assert parse_field_text("bonds", "[{count = 6, delta_d = 0.1, f_ox = 200, f_red = 150}]")[0]["count"] == 6
+    assert parse_field_text("bonds", "6:0.1:200:150")[0] == {"count": 6, "delta_d": 0.1, "f_ox": 200.0, "f_red": 150.0}
     assert parse_field_text("k_self", "") is None
     with pytest.raises(ValueError, match="is not a number"):
         parse_field_text("k_self", "fast")

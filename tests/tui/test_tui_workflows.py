@@ -74,7 +74,34 @@ async def test_sort_keys_reorder_the_table():
         await pilot.press("S")
         E = [screen.couple_set.E_on_root(screen.couple_set[i])[0] for i in table.shown_ids]
         assert E == sorted(E, reverse=True)
-        assert "E/V▼" in screen_text(app)  # the sorted column is marked in the header
+        assert "E▼" in screen_text(app)  # the sorted column is marked in the header
+
+
+@pytest.mark.parametrize("width", [80, 120])
+@run_async
+async def test_every_sortable_column_shows_its_arrow(width):
+    from crossrate.tui.widgets.couple_rows import COLUMNS
+
+    app = _app()
+    async with app.run_test(size=(width, 24)) as pilot:
+        screen = await _ready(pilot)
+        table = screen.query_one(CoupleTable)
+        head = screen_text(app).splitlines()
+        # the header: names, then units (E on the set's common scale, the rate constant in M⁻¹ s⁻¹)
+        assert any("log k_self" in ln for ln in head) and any("V vs SHE" in ln and "M⁻¹ s⁻¹" in ln for ln in head)
+        seen = set()
+        for _ in range(len(COLUMNS) + 1):
+            col = table.sort.column
+            arrow = f"{COLUMNS[col].title}▲"
+            assert arrow in screen_text(app), arrow
+            seen.add(col)
+            await pilot.press("S")
+            await pilot.pause()
+            assert f"{COLUMNS[col].title}▼" in screen_text(app)
+            await pilot.press("s")
+            await pilot.pause()
+        # every column takes its turn, except the layer's below 100 columns, where it is not shown
+        assert len(seen) == len(COLUMNS) - (1 if width < 100 else 0)
 
 
 @run_async
@@ -379,11 +406,11 @@ async def test_mouse_pairing_click_a_row_then_the_footer_keys():
     app = _app()
     async with app.run_test(size=(100, 30)) as pilot:
         screen = await _ready(pilot)
-        await pilot.click(CoupleTable, offset=(5, 3))  # header row, then the third couple
+        await pilot.click(CoupleTable, offset=(5, 4))  # two header rows (names, units), then the third couple
         await pilot.pause()
         assert screen.query_one(CoupleTable).current_id == "hl-cobalt"
         await pilot.click(next(k for k in screen.query(FooterKey) if k.key == "o"))
-        await pilot.click(CoupleTable, offset=(5, 2))
+        await pilot.click(CoupleTable, offset=(5, 3))
         await pilot.pause()
         await pilot.click(next(k for k in screen.query(FooterKey) if k.key == "r"))
         await _settle(pilot, screen)

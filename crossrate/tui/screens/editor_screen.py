@@ -10,7 +10,9 @@ from textual.screen import Screen
 from textual.widgets import Footer, Input, Label, OptionList, Select, Static
 
 from ...errors import ConflictError, CrossrateError
-from ..widgets.couple_form import CoupleForm
+from ..widgets.couple_form import CoupleForm, field_help
+from ..widgets.field_select import FieldSelect
+from ..widgets.text_fit import display_path
 from .confirm_screen import ConfirmScreen
 
 #: Value of the file choice's last entry, which opens the "new library file…" dialog.
@@ -59,19 +61,28 @@ class EditorScreen(Screen[str | None]):
         c = self.couple
         title = {"add": "new couple", "edit": f"edit {c.id if c else ''}", "duplicate": f"copy of {c.id if c else ''}"}
         yield Static(f"{title[self.mode]}   ctrl+s save (asks first)  esc close   * required", id="editor-title")
-        options = [(f"{layer}: {path}", path) for path, layer in self.files]
+        options = [(f"{layer}: {display_path(path, 70)}", path) for path, layer in self.files]
         start = c.origin.path if c is not None and c.origin is not None and c.origin.path in dict(self.files) else None
         yield Label("write to file")
-        yield Select([*options, ("new library file…", NEW_FILE)],
-                     value=start if start else (options[0][1] if options else Select.NULL),
-                     allow_blank=not options, id="editor-file", compact=True, disabled=self.mode == "edit")
+        yield FieldSelect([*options, ("new library file…", NEW_FILE)],
+                          value=start if start else (options[0][1] if options else Select.NULL),
+                          allow_blank=not options, id="editor-file", compact=True, disabled=self.mode == "edit")
         new_id = c.id if (c and self.mode == "edit") else (f"{c.id}-copy" if c else "")
         yield CoupleForm(c if self.mode != "add" else None, new_id, id="form")
+        yield Static("", id="field-help", markup=False)
         yield Static("", id="editor-message", markup=False)
         yield Footer()
 
     def on_mount(self) -> None:
         self.query_one("#f-id", Input).focus()
+
+    def on_descendant_focus(self, event) -> None:
+        """The focused field's whole help under the form (it wraps there instead of being cut)."""
+        wid = getattr(event.widget, "id", None) or ""
+        text = field_help(wid[2:]) if wid.startswith("f-") else ""
+        if wid == "editor-file":
+            text = "the library file the couple is written to (only this couple's table changes)"
+        self.query_one("#field-help", Static).update(text)
 
     @property
     def dirty(self) -> bool:
@@ -103,7 +114,7 @@ class EditorScreen(Screen[str | None]):
                 return
             self.app.created_library_files.append(path)
             self.files = [*self.files, (path, "new")]
-            select.set_options([*((f"{layer}: {p}", p) for p, layer in self.files), ("new library file…", NEW_FILE)])
+            select.set_options([*((f"{layer}: {display_path(p, 70)}", p) for p, layer in self.files), ("new library file…", NEW_FILE)])
             select.value = path
             self._message(f"created {path}; the couple is written there on ctrl+s")
 
@@ -126,9 +137,9 @@ class EditorScreen(Screen[str | None]):
         kind = "update" if self.mode == "edit" else "add"
         old = self.couple.id if (self.couple is not None and kind == "update") else None
         if old is not None and old != cid:
-            question = f"Rename couple {old} to {cid} and write its fields in {path}?"
+            question = f"Rename couple {old} to {cid} and write its fields in {display_path(path)}?"
         else:
-            question = f"{'Replace' if old else 'Add'} couple {cid} in {path}?"
+            question = f"{'Replace' if old else 'Add'} couple {cid} in {display_path(path)}?"
         question += " Only this couple's table changes; comments and other couples stay as they are."
 
         def answered(yes: bool | None) -> None:
@@ -155,15 +166,15 @@ class EditorScreen(Screen[str | None]):
         self.dismiss(cid)
 
     def _conflict(self, path: str, detail: str) -> None:
-        self._message(f"! refused: {path} changed on disk since it was read; nothing was written.\n{detail}")
+        self._message(f"! refused: {display_path(path)} changed on disk since it was read; nothing was written.\n{detail}")
 
         def answered(yes: bool | None) -> None:
             if yes:
                 self.reload_library()
-                self._message(f"{path} reloaded; your form is as you left it. ctrl+s to write again.")
+                self._message(f"{display_path(path)} reloaded; your form is as you left it. ctrl+s to write again.")
 
         self.app.push_screen(
-            ConfirmScreen(f"{path} changed on disk. Reload it (your form stays as typed)?", "reload", "not now"),
+            ConfirmScreen(f"{display_path(path)} changed on disk. Reload it (your form stays as typed)?", "reload", "not now"),
             answered,
         )
 

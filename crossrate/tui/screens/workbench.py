@@ -127,6 +127,7 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
     def _conditions(self, event: ConditionsForm.Changed) -> None:
         self.conditions = event.conditions
         self.cond_problem = ""
+        self.show_detail(self._current())  # the λ breakdown is at the current conditions
         self.recompute()
         if self.view == "map":
             self.refresh_map()

@@ -6,6 +6,7 @@ crossrate.tui.library_access, always after the user confirmed.
 
 from ...errors import CrossrateError
 from ..widgets.couple_table import CoupleTable
+from ..widgets.text_fit import display_path
 
 
 class WorkbenchEditing:
@@ -75,6 +76,6 @@ class WorkbenchEditing:
                 self.status(f"! not deleted: {exc}")
                 return
             self.action_reload()
-            self.status(f"removed couple {cid} from {path}")
+            self.status(f"removed couple {cid} from {display_path(path)}")
 
-        self.app.push_screen(ConfirmScreen(f"Remove couple {cid} from {path}? Other tables stay as they are.", "remove", "keep"), answered)
+        self.app.push_screen(ConfirmScreen(f"Remove couple {cid} from {display_path(path)}? Other tables stay as they are.", "remove", "keep"), answered)

@@ -12,7 +12,7 @@ from ..units import next_unit
 from ..widgets.check_panel import CheckPanel, check_text
 from ..widgets.conditions_form import ConditionsForm
 from ..widgets.couple_detail import CoupleDetail
-from ..widgets.couple_rows import build_rows, filter_rows
+from ..widgets.couple_rows import build_rows, e_unit, filter_rows
 from ..widgets.couple_table import CoupleTable
 from ..widgets.energy_plot import EnergyPlot
 from ..widgets.heat_map import HeatMap
@@ -36,8 +36,8 @@ VIEW_FOCUS = {"couples": "#table", "predict": "#prediction-scroll", "check": "#c
 #: The status line on entering a view: how to move in it.
 VIEW_HINTS = {
     "predict": "↑↓ PgUp PgDn scroll  tab: into the conditions  esc: out of a field",
-    "curve": "● this pair  x a measured k (enter it in view 5)  u energy units",
-    "energy": "◆ where the parabolas cross: the barrier  u energy units",
+    "curve": "a measured k (entered in view 5) is drawn as x  u energy units",
+    "energy": "λ, ΔG°' and the barrier read off the dotted guides  u energy units",
     "check": "tab: into the measured k  esc: out of a field  PgUp PgDn scroll",
     "map": "arrows move  enter (or a second click) sets the pair  / filters the couples",
 }
@@ -85,7 +85,7 @@ class WorkbenchLogic:
         self.couple_set = cs
         self.rows = build_rows(cs)
         table = self.query_one(CoupleTable)
-        table.set_rows(self.rows, filter_rows(self.rows, self.query_one("#search", Input).value))
+        table.set_rows(self.rows, filter_rows(self.rows, self.query_one("#search", Input).value), e_unit(cs))
         if self.oxidant not in cs or self.reductant not in cs:
             self.oxidant = self.oxidant if self.oxidant in cs else None
             self.reductant = self.reductant if self.reductant in cs else None
@@ -125,7 +125,8 @@ class WorkbenchLogic:
     def show_detail(self, couple_id: str | None) -> None:
         cs = self.couple_set
         c = cs[couple_id] if cs is not None and couple_id in cs else None
-        self.query_one(CoupleDetail).show(cs, c, self.app.lambda_lines(cs, c, self.conditions) if c is not None else None)
+        lines = self.app.lambda_lines(cs, c, self.conditions, self.unit) if c is not None else None
+        self.query_one(CoupleDetail).show(cs, c, lines)
 
     # -- pair -------------------------------------------------------------------------------------------
     def _current(self) -> str | None:
@@ -207,6 +208,7 @@ class WorkbenchLogic:
     def action_cycle_unit(self) -> None:
         self.unit = next_unit(self.unit)
         self.query_one(ViewTabs).show(self.view, self.unit)
+        self.show_detail(self._current())  # its λ lines follow the unit too
         self.refresh_results()
 
     # -- prediction -------------------------------------------------------------------------------------

@@ -10,10 +10,16 @@ _DOT = ((0x01, 0x08), (0x02, 0x10), (0x04, 0x20), (0x40, 0x80))
 
 
 class BrailleCanvas:
-    """cols x rows cells mapping data x in [x0, x1] and y in [y0, y1] (y up)."""
+    """cols x rows cells mapping data x in [x0, x1] and y in [y0, y1] (y up).
 
-    def __init__(self, cols: int, rows: int, x0: float, x1: float, y0: float, y1: float):
+    y_bands: each row holds an equal band (y1 - y0) / rows of y, a value lands in the row of its band, so a
+    row's centre is within half a row of every value drawn in it (the rate curve reads decades off its rows).
+    Otherwise y0 and y1 fall on the bottom and top dots.
+    """
+
+    def __init__(self, cols: int, rows: int, x0: float, x1: float, y0: float, y1: float, y_bands: bool = False):
         self.cols, self.rows = max(1, cols), max(1, rows)
+        self.y_bands = y_bands
         self.x0, self.x1, self.y0, self.y1 = x0, x1, y0, y1
         self._bits = [[0] * self.cols for _ in range(self.rows)]
         self._style = [[""] * self.cols for _ in range(self.rows)]
@@ -22,8 +28,16 @@ class BrailleCanvas:
     def _px(self, x: float, y: float) -> tuple[float, float]:
         w, h = self.cols * 2, self.rows * 4
         px = (x - self.x0) / (self.x1 - self.x0) * (w - 1)
-        py = (self.y1 - y) / (self.y1 - self.y0) * (h - 1)
+        if self.y_bands:
+            # dot k covers [k, k+1) of h equal dots; the -0.5 makes round() pick that dot
+            py = (self.y1 - y) / (self.y1 - self.y0) * h - 0.5
+        else:
+            py = (self.y1 - y) / (self.y1 - self.y0) * (h - 1)
         return px, py
+
+    def row_centre(self, row: int) -> float:
+        """The y value at the centre of a row (y_bands canvases)."""
+        return self.y1 - (row + 0.5) * (self.y1 - self.y0) / self.rows
 
     def cell_of(self, x: float, y: float) -> tuple[int, int]:
         """(column, row) of the cell holding data point (x, y), clamped to the canvas."""

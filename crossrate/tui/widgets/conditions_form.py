@@ -8,6 +8,7 @@ from textual.widgets import Checkbox, Input, Label, Select, Static
 
 from ...errors import ConditionsError
 from .field_input import FieldInput
+from .field_select import FieldSelect
 from .plain_checkbox import PlainCheckbox
 
 OWN = "couples' own"
@@ -53,7 +54,7 @@ class ConditionsForm(Vertical):
         yield Label("ionic strength (M)")
         yield FieldInput("", placeholder=OWN, id="cond-I", compact=True)
         yield Label("medium")
-        yield Select([], prompt=OWN, id="cond-medium", compact=True)
+        yield FieldSelect([], prompt=OWN, id="cond-medium", compact=True)
         yield Label("Z (M⁻¹ s⁻¹)")
         yield FieldInput("1e11", id="cond-Z", compact=True)
         yield PlainCheckbox("diffusion cap", True, id="cond-diffusion", compact=True)

@@ -17,6 +17,7 @@ from ...library.couple import COUPLE_FIELDS, Couple
 if TYPE_CHECKING:
     from ...library.couple_set import CoupleSet
 from ...library.schema import FIELDS_BY_NAME
+from .text_fit import display_path
 
 
 def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None) -> Group:
@@ -36,10 +37,12 @@ def detail_text(cs: CoupleSet, c: Couple, lambda_lines: list[str] | None = None)
     if c.E_scale != root or c.effective_E != c.E:
         t.append(f"  (reacting form {E_root:+.3f} V on {root})")
     if c.origin is not None:
-        t.append(printable(f"\nfrom {c.origin.path}:{c.origin.line}  (layer {c.origin.layer})"), style="dim")
+        # the path shortened (one unbreakable word in a narrow panel), the line number kept
+        t.append(printable(f"\nfrom {display_path(c.origin.path, 36)}:{c.origin.line}  (layer {c.origin.layer})"),
+                 style="dim")
     for sh in cs.shadowed:
         if sh.couple_id == c.id:
-            t.append(f"\nshadows {sh.hidden.path}:{sh.hidden.line}", style="dim")
+            t.append(f"\nshadows {display_path(sh.hidden.path, 36)}:{sh.hidden.line}", style="dim")
     fields = Table.grid(padding=(0, 1))
     fields.add_column(style="bold", no_wrap=True, min_width=15)
     fields.add_column()

@@ -18,8 +18,9 @@ def field_text(c: Couple | None, name: str) -> str:
     if v is None or v == () or v == "":
         return "false" if name == "verified" else ""
     if name == "bonds":
-        parts = [f"{{count = {b.count}, delta_d = {b.delta_d!r}, f_ox = {b.f_ox!r}, f_red = {b.f_red!r}}}" for b in v]
-        return "[" + ", ".join(parts) + "]"
+        from ...library.bond_text import bonds_text
+
+        return bonds_text(v)
     if name == "tags":
         return ", ".join(v)
     if isinstance(v, bool):
@@ -30,6 +31,27 @@ def field_text(c: Couple | None, name: str) -> str:
             return f"{mant.rstrip('0').rstrip('.')}e{int(exp)}"
         return repr(v)
     return str(v)
+
+
+#: Short placeholders of empty fields by kind (the full help is shown under the form: field_help).
+PLACEHOLDERS = {"bonds": "(empty) e.g. 6:0.13:230:160", "text list": "(empty) e.g. aqua, cage"}
+ID_HELP = "the couple's key in the file: lower-case letters, digits, '.', '_' and '-'"
+
+
+def field_help(name: str) -> str:
+    """The help line of a form field: label, meaning, and what a valid value looks like."""
+    if name == "id":
+        return f"*id: {ID_HELP} (required)"
+    spec = FIELDS_BY_NAME[name]
+    if spec.kind == "bonds":
+        from ...library.bond_text import BOND_FORM
+
+        expected = BOND_FORM
+    else:
+        expected = spec.expected()
+    need = " (required)" if spec.required and not spec.library_default else (
+        " (the file's [library] default when empty)" if spec.library_default else "")
+    return f"{spec.label}: {spec.help}{need}; {expected}"
 
 
 def check_text_value(name: str, text: str):
@@ -61,15 +83,17 @@ class CoupleForm(VerticalScroll):
 
     def compose(self) -> ComposeResult:
         with Horizontal(classes="form-row"):
-            yield Label("id", classes="form-label")
+            yield Label("*id", classes="form-label")
             yield FieldInput(self._new_id, id="f-id", compact=True)
         yield Static("", id="m-id", classes="form-message", markup=False)
         for spec in FIELD_SPECS:
             with Horizontal(classes="form-row"):
                 mark = "*" if spec.required and not spec.library_default else " "
                 yield Label(f"{mark}{spec.label}", classes="form-label")
+                # The field's whole help is on the line under the form while the field has the focus (it
+                # wraps there); the placeholder stays short so nothing is cut at 80 columns.
                 yield FieldInput(field_text(self._couple, spec.name), id=f"f-{spec.name}", compact=True,
-                            placeholder=f"(empty) {spec.help}"[:70], tooltip=spec.help)
+                                 placeholder=PLACEHOLDERS.get(spec.kind, "(empty)"), tooltip=spec.help)
             yield Static("", id=f"m-{spec.name}", classes="form-message", markup=False)
 
     def _field_of(self, input_id: str) -> str:

@@ -15,22 +15,34 @@ if TYPE_CHECKING:
 
 @dataclass(frozen=True)
 class Column:
+    """title: first header line; unit: second header line (the E column's is set from the couple set)."""
+
     title: str
     width: int  # 0: takes the remaining width
     right: bool = False
+    unit: str = ""
 
 
+#: Every column is sortable (s cycles, S reverses); the first one is the order of the library files.
 COLUMNS = (
     Column("", 1),
-    Column("id", 15),
+    Column("id", 14),
     Column("name", 0),
-    Column("ox/red", 6),
-    Column("E/V", 7, right=True),
-    Column("lg k11", 6, right=True),
+    Column("ox/red", 6, unit="charges"),
+    Column("E", 8, right=True, unit="V vs SHE"),
+    Column("log k_self", 10, right=True, unit="M⁻¹ s⁻¹"),
     Column("medium", 8),
-    Column("I/M", 5, right=True),
+    Column("I", 5, right=True, unit="M"),
     Column("layer", 7),
 )
+E_COLUMN = 4
+
+
+def e_unit(cs: CoupleSet) -> str:
+    """The E column's unit line: the scale every shown potential is on ('V vs SHE'), or, when the couples'
+    scales have different roots, 'V, own root' (each E on its couple's root scale, named in the detail)."""
+    roots = {cs.E_on_root(c)[1] for c in cs}
+    return f"V vs {roots.pop()}" if len(roots) == 1 else "V own root"
 
 
 

@@ -12,15 +12,17 @@ from textual.message import Message
 from textual.reactive import reactive
 from textual.widget import Widget
 
-from .couple_rows import COLUMNS, CoupleRow
+from .couple_rows import COLUMNS, E_COLUMN, CoupleRow
+from .text_fit import fit_end, fit_middle
 
 MEDIUM = next(k for k, c in enumerate(COLUMNS) if c.title == "medium")
+ID = next(k for k, c in enumerate(COLUMNS) if c.title == "id")
+LAYER = next(k for k, c in enumerate(COLUMNS) if c.title == "layer")
 MEDIUM_MAX = 15  # columns
-
-
-def fit(text: str, width: int) -> str:
-    """text cut to width, a cut shown by a final '…' (so a long id is not taken for a shorter one)."""
-    return text if len(text) <= width else text[: max(0, width - 1)] + "…"
+#: Below this width (columns) the layer column is left out, so names keep a readable width at 80 columns.
+LAYER_FROM = 100
+#: Header lines above the rows: the column names (with the sort arrow), then their units.
+HEAD = 2
 
 
 @dataclass(frozen=True)
@@ -59,10 +61,13 @@ class CoupleTable(Widget, can_focus=True):
         self._shown: list[int] = []
         self._top = 0
         self._last_sent: str | None = "\0"
+        self.units = [c.unit for c in COLUMNS]
 
     # -- data -------------------------------------------------------------------------------------------
-    def set_rows(self, rows: list[CoupleRow], shown: list[int] | None = None) -> None:
-        """Replace all rows (shown: indices to display, default all)."""
+    def set_rows(self, rows: list[CoupleRow], shown: list[int] | None = None, e_unit: str | None = None) -> None:
+        """Replace all rows (shown: indices to display, default all; e_unit: the E column's unit line)."""
+        if e_unit is not None:
+            self.units[E_COLUMN] = e_unit
         keep = self.current_id
         self._rows = rows
         self._shown = []
@@ -109,7 +114,7 @@ class CoupleTable(Widget, can_focus=True):
     # -- cursor -----------------------------------------------------------------------------------------
     @property
     def _body_height(self) -> int:
-        return max(1, self.size.height - 1)
+        return max(1, self.size.height - HEAD)
 
     def validate_cursor(self, value: int) -> int:
         return max(0, min(value, len(self._shown) - 1)) if self._shown else 0
@@ -139,15 +144,20 @@ class CoupleTable(Widget, can_focus=True):
         self.cursor = len(self._shown) - 1 if where < 0 else 0
 
     def action_cycle_sort(self) -> None:
-        self.sort = SortKey((self.sort.column + 1) % len(COLUMNS), False)
+        """Sort by the next column shown (a column left out at this width is skipped)."""
+        widths = self._widths(self.size.width)
+        col = (self.sort.column + 1) % len(COLUMNS)
+        while not widths[col] and col != self.sort.column:
+            col = (col + 1) % len(COLUMNS)
+        self.sort = SortKey(col, False)
 
     def action_reverse_sort(self) -> None:
         self.sort = SortKey(self.sort.column, not self.sort.reverse)
 
     def on_click(self, event) -> None:
         y = event.get_content_offset(self)
-        if y is not None and y.y >= 1:
-            self.cursor = self._top + y.y - 1
+        if y is not None and y.y >= HEAD:
+            self.cursor = self._top + y.y - HEAD
 
     def on_mouse_scroll_down(self, event) -> None:
         self.cursor += 3
@@ -162,24 +172,33 @@ class CoupleTable(Widget, can_focus=True):
 
     # -- drawing ----------------------------------------------------------------------------------------
     def _widths(self, total: int) -> list[int]:
-        fixed = [c.width for c in COLUMNS]
-        flex = max(8, total - sum(w for w in fixed if w) - len(COLUMNS))
+        """Column widths (0: the column is left out, the layer below LAYER_FROM columns; the detail has it)."""
+        fixed = [max(c.width, len(c.title) + 1) if c.width else 0 for c in COLUMNS]
+        if total < LAYER_FROM:
+            fixed[LAYER] = -1
+        shown = sum(1 for w in fixed if w >= 0)
+        flex = max(8, total - sum(w for w in fixed if w > 0) - (shown - 1))
         # On a wide terminal long solvent names (dichloromethane) are shown whole; the name keeps 30 or more.
         grow = min(MEDIUM_MAX - fixed[MEDIUM], max(0, flex - 30))
         fixed[MEDIUM] += grow
-        return [w or flex - grow for w in fixed]
+        return [max(0, w) if w else flex - grow for w in fixed]
 
     def render(self) -> Text:
         width = self.size.width
         widths = self._widths(width)
         out = Text(no_wrap=True, overflow="crop")
-        head = []
+        head, units = [], []
         for k, (col, w) in enumerate(zip(COLUMNS, widths, strict=True)):
-            label = col.title
-            if k == self.sort.column:
-                label += "▼" if self.sort.reverse else "▲"
-            head.append(label[:w].ljust(w) if not col.right else label[:w].rjust(w))
-        out.append(" ".join(head)[:width].ljust(width), style="bold underline")
+            if not w:
+                continue
+            # Every column is wide enough for its title and the arrow, so the sorted one always shows it.
+            label = col.title + (("▼" if self.sort.reverse else "▲") if k == self.sort.column else "")
+            unit = fit_end(self.units[k], w)
+            head.append(label.rjust(w) if col.right else label.ljust(w))
+            units.append(unit.rjust(w) if col.right else unit.ljust(w))
+        out.append(" ".join(head)[:width].ljust(width), style="bold")
+        out.append("\n")
+        out.append(" ".join(units)[:width].ljust(width), style="dim underline")
         if not self._shown:
             empty = "no couple matches the filter" if self._rows else "no couples loaded"
             out.append(f"\n  {empty}", style="italic")
@@ -187,10 +206,13 @@ class CoupleTable(Widget, can_focus=True):
         end = min(len(self._shown), self._top + self._body_height)
         for pos in range(self._top, end):
             row = self._rows[self._shown[pos]]
-            cells = [
-                (fit(v, w).rjust(w) if col.right else fit(v, w).ljust(w))
-                for v, col, w in zip(row.cells, COLUMNS, widths, strict=True)
-            ]
+            cells = []
+            for k, (v, col, w) in enumerate(zip(row.cells, COLUMNS, widths, strict=True)):
+                if not w:
+                    continue
+                # ids keep their distinguishing end (hl-ferr…ne-mecn); other cells lose their end
+                v = fit_middle(v, w) if k == ID else fit_end(v, w)
+                cells.append(v.rjust(w) if col.right else v.ljust(w))
             line = " ".join(cells)[:width].ljust(width)
             style = "reverse" if pos == self.cursor else ("italic" if not row.verified else "")
             out.append("\n")

@@ -11,7 +11,7 @@ if TYPE_CHECKING:
     from ...services.curves import EnergySurfaces
 from ..units import energy_factor
 from .braille_canvas import BrailleCanvas
-from .rate_curve_plot import _ticks
+from .rate_curve_plot import _ticks, wrap_items
 
 AXIS = 7
 
@@ -21,7 +21,7 @@ def energy_lines(s: EnergySurfaces, width: int, height: int, unit: str, note: st
     lam, dG, g_star = s.lambda_kJ * f, s.dG0_prime_kJ * f, s.G_cross * f
     y0 = min(0.0, dG) - 0.15 * lam
     y1 = max(lam, g_star, dG + lam) * 1.15
-    cols, rows = max(10, width - AXIS - 1), max(4, height - 4)
+    cols, rows = max(10, width - AXIS - 1), max(4, height - 5)
     cv = BrailleCanvas(cols, rows, float(s.x[0]), float(s.x[-1]), y0, y1)
     xs = list(s.x)
     # Guides from which λ, ΔG°' and the barrier are read: the reactant-minimum level, and verticals at the
@@ -62,11 +62,10 @@ def energy_lines(s: EnergySurfaces, width: int, height: int, unit: str, note: st
         labels[start : start + len(name)] = list(name)
     out.append(" " * AXIS)
     out.append("".join(labels) + "\n", style="dim")
-    nums = (
-        f"λ {lam:.3g}  ΔG°' {dG:+.3g}  ΔG‡ {s.dG_act_kJ * f:.3g} = w12 {s.w12_kJ * f:.2g} + barrier {g_star:.3g} {unit}"
-    )
-    legend = "   ── reactants  ··· products"
-    out.append((nums + legend) if len(nums) + len(legend) <= width else nums[:width])
+    nums = [f"λ {lam:.3g}", f"ΔG°' {dG:+.3g}",
+            f"ΔG‡ {s.dG_act_kJ * f:.3g} = w12 {s.w12_kJ * f:.2g} + barrier {g_star:.3g} {unit}"]
+    legend = ["── reactants", "··· products", "R reactant minimum", "◆ crossing"]
+    out.append("\n".join(wrap_items(nums + legend, width, 2)))
     return out
 
 

@@ -10,11 +10,21 @@ from textual.binding import Binding
 from textual.message import Message
 from textual.widget import Widget
 
+from .text_fit import fit_middle
+
 LABEL = 17  # row label width: index + id
 CELL = 2
 #: One symbol per decade of k_obs (log10 rounded down), clamped at the ends: digits 0-9 for 10^0..10^9,
 #: A B C for 10^10..10^12, lower-case a..i for 10^-1..10^-9 (distinct without colour).
 DECADE_SYMBOLS = dict(zip(range(-9, 13), "ihgfedcba" + "0123456789" + "ABC", strict=True))
+
+
+#: Head of the row labels, and how to make the cell under the cursor the pair.
+CORNER = "ox \\ red"
+CHOOSE_HINT = "(enter: set as pair)"
+#: What the symbols mean; the end symbols also hold every decade beyond them.
+LEGEND = ("decade of k_obs / M⁻¹ s⁻¹: 0-9 = 10⁰-10⁹, A B = 10¹⁰ 10¹¹, C = 10¹² and faster, "
+          "a-h = 10⁻¹-10⁻⁸, i = 10⁻⁹ and slower, · not computable.")
 
 
 def decade_symbol(log10_k: float) -> str:
@@ -40,7 +50,8 @@ class HeatMap(Widget, can_focus=True):
         Binding("right", "move(0, 1)", show=False),
         Binding("pageup", "move(-10, 0)", show=False),
         Binding("pagedown", "move(10, 0)", show=False),
-        Binding("enter", "choose", "set pair"),
+        # Not in the footer: the line under the map says it, and the footer must fit 80 columns.
+        Binding("enter", "choose", "set pair", show=False),
     ]
 
     class Chosen(Message):
@@ -71,8 +82,8 @@ class HeatMap(Widget, can_focus=True):
         self.refresh()
 
     def _view(self) -> tuple[int, int]:
-        # Two header rows, then the value line and the legend (each may take two lines).
-        return max(1, self.size.height - 6), max(1, (self.size.width - LABEL) // CELL)
+        # Two header rows, then the value line (may take two lines) and the legend (up to three).
+        return max(1, self.size.height - 7), max(1, (self.size.width - LABEL) // CELL)
 
     def action_move(self, dr: int, dc: int) -> None:
         n = len(self._ids)
@@ -134,12 +145,13 @@ class HeatMap(Widget, can_focus=True):
             for j in range(self._left, c_end):
                 out.append(f" {(j // 10) % 10 if j >= 10 else ' '}", style="bold reverse" if j == self.col else "dim")
             out.append("\n")
-        out.append("ox \\ red".ljust(LABEL), style="dim")
+        out.append(CORNER.ljust(LABEL), style="dim")
         for j in range(self._left, c_end):
             out.append(f" {j % 10}", style="bold reverse" if j == self.col else "dim")
         out.append("\n")
         for i in range(self._top, r_end):
-            label = f"{i:>2} {self._ids[i]}"[: LABEL - 1].ljust(LABEL)
+            # the id keeps its distinguishing end: hl-ferr…ne-mecn
+            label = f"{i:>2} {fit_middle(self._ids[i], LABEL - 4)}".ljust(LABEL)
             out.append(label, style="bold reverse" if i == self.row else "")
             for j in range(self._left, c_end):
                 v = float(self._values[i, j])
@@ -150,9 +162,6 @@ class HeatMap(Widget, can_focus=True):
         ox, red = self._ids[self.row], self._ids[self.col]
         v = float(self._values[self.row, self.col])
         value = f"k_obs 10^{v:.2f} M⁻¹ s⁻¹" if math.isfinite(v) else f"not computable{self._reason(ox, red)}"
-        out.append(f"{ox} + {red}: {value}   (enter: set as pair)\n", style="bold")
-        out.append(
-            f"decade of k_obs: 0-9 = 10⁰-10⁹, A B C = 10¹⁰-10¹², a-i = 10⁻¹-10⁻⁹, · not computable. {self._note}",
-            style="dim",
-        )
+        out.append(f"{ox} + {red}: {value}   {CHOOSE_HINT}\n", style="bold")
+        out.append(f"{LEGEND} {self._note}", style="dim")
         return out

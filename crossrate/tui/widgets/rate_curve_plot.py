@@ -25,6 +25,47 @@ def _ticks(lo: float, hi: float, max_ticks: int) -> list[float]:
     return [first + k * step for k in range(int((hi - first) / step) + 1)]
 
 
+def wrap_items(items: list[str], width: int, max_lines: int) -> list[str]:
+    """Legend items joined by two spaces into at most max_lines lines of width; an item never split (items
+    that do not fit are left out, whole)."""
+    lines: list[str] = [""]
+    for it in items:
+        joined = f"{lines[-1]}  {it}" if lines[-1] else it
+        if len(joined) <= width:
+            lines[-1] = joined
+        elif len(lines) < max_lines and len(it) <= width:
+            lines.append(it)
+    return lines
+
+
+def decade_axis(bottom: int, top: int, rows: int) -> tuple[float, float, dict[int, int]]:
+    """The y axis of the rate curve: (y_lo, y_hi, {row: decade}) for a canvas of `rows` equal bands (log10 k
+    per band constant). Ticks are whole decades on evenly spaced rows (every `per` rows, `step` decades
+    apart), each at the centre of its row, so a point is read off within half a row; the finest scale that
+    shows bottom..top is chosen, with a blank row between labels when the rows allow it."""
+    best = None
+    for step in (1, 2, 3, 5, 10, 20, 50):
+        t_top = math.ceil(top / step) * step
+        for per in (1, 2, 3, 4, 5, 6):
+            d = step / per  # decades per row
+            # every row down to the lowest holds bottom too, and at least two ticks are shown
+            if t_top - (rows - 1) * d > bottom or rows <= per:
+                continue
+            key = (d, per == 1, step)
+            if best is None or key < best[0]:
+                best = (key, step, per, t_top)
+    if best is None:  # very few rows for the span: one band of several decades per row
+        step = max(1, math.ceil((top - bottom) / max(1, rows - 1)))
+        per, t_top = 1, math.ceil(top / step) * step
+    else:
+        _key, step, per, t_top = best
+    d = step / per
+    y_hi = t_top + d / 2
+    y_lo = y_hi - rows * d
+    ticks = {r: t_top - (r // per) * step for r in range(0, rows, per)}
+    return y_lo, y_hi, ticks
+
+
 def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, measured: float | None,
                 note: str = "") -> Text:
     """The picture as text, width x height cells."""
@@ -36,8 +77,9 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
     # Show the curve down to 14 decades below its top, and always the pair and the measured value.
     bottom = max(math.floor(min(act)), top - 14)
     bottom = min(bottom, math.floor(min(extras)) - 1)
-    cols, rows = max(10, width - AXIS - 1), max(4, height - 5)
-    cv = BrailleCanvas(cols, rows, xs[0], xs[-1], bottom, top)
+    cols, rows = max(10, width - AXIS - 1), max(4, height - 6)
+    y_lo, y_hi, y_ticks = decade_axis(bottom, top, rows)
+    cv = BrailleCanvas(cols, rows, xs[0], xs[-1], y_lo, y_hi, y_bands=True)
     for reg in curve.regions[1:]:
         cv.vline(reg.low_kJ * f, "dim", every=2)
     if curve.log10_k_diff is not None:
@@ -60,10 +102,6 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
         cv.text(c + 1 if (c, r) == pair_cell else c, r, "x", "bold reverse")
     body = cv.to_lines()
 
-    # Decades only (whole powers of ten), as many as fit with a blank row between labels.
-    step = next((k for k in (1, 2, 3, 5, 10) if (top - bottom) / k <= max(2, rows // 2)), 10)
-    first = -(-bottom // step) * step
-    y_ticks = {cv.cell_of(xs[0], y)[1]: y for y in range(first, top + 1, step)}
     out = Text(no_wrap=True, overflow="crop")
     out.append(note or f"k / M⁻¹ s⁻¹ against -ΔG°' ({unit});  λ12 = {curve.lambda_kJ * f:.3g} {unit}", style="bold")
     out.append("\n")
@@ -88,10 +126,10 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
     out.append("└" + "".join(axis)[: cols - 1] + "\n", style="dim")
     out.append(" " * (AXIS + 1))
     out.append("".join(labels) + "\n", style="dim")
-    legend = "── k_obs (diffusion-capped)  ··· k_act  ● this pair" + ("  x measured" if measured is not None else "")
-    if curve.log10_k_diff is not None:
-        legend += "  - - k_D"
-    out.append(legend[: width])
+    items = ["── k_obs (diffusion-capped)", "··· k_act", "● this pair"]
+    items += ["x measured"] if measured is not None else []
+    items += ["- - k_D (diffusion limit)"] if curve.log10_k_diff is not None else []
+    out.append("\n".join(wrap_items(items, width, 2)))
     return out
 
 
