@@ -50,6 +50,23 @@ def test_starter_values_are_all_marked_recalled():
     assert "spin-change" in lf.couple("co-nh3-6").tags
 
 
+def test_starter_proteins_and_organic_mediators_carry_their_cautions():
+    lf = read_library_file(LIBS / "starter.toml")
+    proteins = [c for c in lf.couples if "protein" in c.tags]
+    assert {c.id for c in proteins} >= {"cyt-c", "azurin"}
+    section = lf.text.split("# --- Electron-transfer proteins", 1)[1].split("[couple.", 1)[0]
+    assert "ionic strength" in section and "pH" in section  # the cautions protein couples need
+    for c in proteins:
+        assert "pH" in c.notes and c.medium == "water" and not c.verified, c.id
+        assert c.k_self_log10_sd is not None and c.k_self_log10_sd >= 0.7, c.id  # uncertain: said by a wide SD
+    mediators = {c.id for c in lf.couples if "mediator" in c.tags and "organic" in c.tags}
+    assert mediators >= {"mv", "bq", "fc-meoh"}
+    for cid in mediators | {c.id for c in proteins}:
+        c = lf.couple(cid)
+        # unsure values say so in the note; one electron, outer sphere (charge_ox - charge_red = 1)
+        assert "Not sure" in c.notes and "from memory" in c.source and c.charge_ox - c.charge_red == 1, cid
+
+
 def _readme():
     return (LIBS / "README.md").read_text(encoding="utf-8")
 
