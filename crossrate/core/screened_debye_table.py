@@ -109,20 +109,45 @@ class ScreenedDebyeTable:
 TABLE_MIN_PAIRS = 2048
 
 
+#: Above this many distinct (Bjerrum length, kappa) among the pairs, the pairs are integrated one by one.
+_MAX_CONDITION_GROUPS = 64
+
+
+def _one_condition(zz, r, bjerrum_m: float, kappa_per_m: float):
+    if (zz.size >= TABLE_MIN_PAIRS and kappa_per_m > 0.0 and np.all(np.isfinite(r)) and np.all(r > 0)
+            and np.all(zz == np.round(zz))):
+        return ScreenedDebyeTable(zz, float(np.min(r)), float(np.max(r)), bjerrum_m, kappa_per_m).ln_factor(zz, r)
+    return ln_screened_debye_factor(zz * bjerrum_m / (r * (1.0 + kappa_per_m * r)), kappa_per_m * r)
+
+
 def screened_ln_factor(z1z2, r12_m, bjerrum_m, kappa_per_m):
-    """ln F for pairs (z1 z2, r12) at conditions (Bjerrum length, kappa): exact quadrature, or the table for
-    many pairs at one set of conditions (scalar bjerrum_m and kappa_per_m) with integer charge products.
+    """ln F for pairs (z1 z2, r12) at conditions (Bjerrum length, kappa): exact quadrature, or a table for
+    each set of conditions shared by TABLE_MIN_PAIRS pairs or more (integer charge products).
 
     Args: z1z2 charge products; r12_m encounter distances, m; bjerrum_m, m; kappa_per_m, 1/m. Broadcast.
     Returns: ln F (dimensionless), the screened Debye factor of Debye's 1942 integral (module docstring).
     """
-    zz, r, lb, kap = np.broadcast_arrays(*(np.asarray(v, dtype=float) for v in (z1z2, r12_m, bjerrum_m, kappa_per_m)))
-    scalar_conditions = np.ndim(bjerrum_m) == 0 and np.ndim(kappa_per_m) == 0
-    if (scalar_conditions and zz.size >= TABLE_MIN_PAIRS and float(kappa_per_m) > 0.0
-            and np.all(np.isfinite(r)) and np.all(r > 0) and np.all(zz == np.round(zz))):
-        table = ScreenedDebyeTable(zz.ravel(), float(np.min(r)), float(np.max(r)), float(bjerrum_m), float(kappa_per_m))
-        return table.ln_factor(zz, r)
-    return ln_screened_debye_factor(zz * lb / (r * (1.0 + kap * r)), kap * r)
+    arrays = np.broadcast_arrays(*(np.asarray(v, dtype=float) for v in (z1z2, r12_m, bjerrum_m, kappa_per_m)))
+    shape = arrays[0].shape
+    zz, r, lb, kap = (a.ravel() for a in arrays)
+    if lb.size < TABLE_MIN_PAIRS:
+        return ln_screened_debye_factor(zz * lb / (r * (1.0 + kap * r)), kap * r).reshape(shape)
+    out = np.full(lb.size, np.nan)
+    known = np.isfinite(lb) & np.isfinite(kap)  # unknown conditions (NaN ionic strength) stay NaN
+    if np.all(lb[known] == lb[known][:1]) and np.all(kap[known] == kap[known][:1]):
+        groups = [np.flatnonzero(known)] if known.any() else []
+    else:
+        # Per-pair conditions are usually a few (ionic strength, medium) groups: one table per group.
+        keys, inverse = np.unique(np.stack([lb[known], kap[known]]), axis=1, return_inverse=True)
+        if keys.shape[1] > _MAX_CONDITION_GROUPS:
+            return ln_screened_debye_factor(zz * lb / (r * (1.0 + kap * r)), kap * r).reshape(shape)
+        rows = np.flatnonzero(known)
+        inverse = inverse.ravel()
+        order = np.argsort(inverse, kind="stable")
+        groups = np.split(rows[order], np.flatnonzero(np.diff(inverse[order])) + 1)
+    for g in groups:
+        out[g] = _one_condition(zz[g], r[g], float(lb[g[0]]), float(kap[g[0]]))
+    return out.reshape(shape)
 
 
 def bjerrum_length(eps_r, T_K):

@@ -163,3 +163,19 @@ def test_d_ln_k_diff_shifts_k_D():
     base, moved = cross_rate(*args), cross_rate(*args, d_ln_k_diff=0.7)
     assert float(moved.ln_k_diff - base.ln_k_diff) == pytest.approx(0.7, abs=1e-12)
     assert float(moved.ln_k_act) == float(base.ln_k_act)
+
+
+def test_per_pair_conditions_take_one_table_per_group():
+    # A batch whose pairs carry their own conditions (two ionic strengths, one unknown) as arrays: each group of
+    # TABLE_MIN_PAIRS or more pairs gets its table (within TABLE_TOLERANCE of the integral), unknown stays NaN.
+    n = 3 * 2500
+    rng = np.random.default_rng(8)
+    zz = rng.integers(-9, 10, n).astype(float)
+    r = rng.uniform(5e-10, 12e-10, n)
+    lb = np.full(n, _bjerrum(78.4, T25))
+    kap = np.repeat([float(debye_kappa(0.1, 78.4, T25)), float(debye_kappa(1.0, 78.4, T25)), np.nan], 2500)
+    got = screened_ln_factor(zz, r, lb, kap)
+    exact = ln_screened_debye_factor(zz * lb / (r * (1 + kap * r)), kap * r)
+    np.testing.assert_allclose(got[:5000], exact[:5000], rtol=0, atol=TABLE_TOLERANCE)
+    assert not np.array_equal(got[:5000], exact[:5000])  # the tables were used
+    assert np.isnan(got[5000:]).all()
