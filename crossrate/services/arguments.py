@@ -28,12 +28,18 @@ def require_id(value, name: str) -> str:
     return value
 
 
-def require_conditions(value, name: str = "conditions"):
-    """Conditions or None."""
+def require_conditions(value, name: str = "conditions", classical_only: str = ""):
+    """Conditions or None. classical_only: the name of a service that has no semiclassical model, which
+    then refuses conditions asking for it (rather than silently computing the classical rates)."""
     from .conditions import Conditions
 
     if value is not None and not isinstance(value, Conditions):
         raise ArgumentError(f"{name}: got {_kind(value)}; expected crossrate.Conditions(...) or None")
+    if classical_only and value is not None and value.rate_model != "classical":
+        from ..errors import ConditionsError
+
+        raise ConditionsError(f"{classical_only} uses the classical model only; expected rate_model='classical' "
+                              "(the semiclassical model is available for single predictions)")
     return value
 
 

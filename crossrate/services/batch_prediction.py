@@ -183,7 +183,7 @@ def predict_many(
     Pairs that cannot be computed are NaN with a reason.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions)
+    require_conditions(conditions, classical_only="predict_many")
     ox = _as_index(couple_set, oxidants, "oxidants")
     red = _as_index(couple_set, reductants, "reductants")
     if ox.shape != red.shape:

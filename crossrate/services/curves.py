@@ -48,6 +48,10 @@ class DrivingForceCurve:
     pair_log10_k_act: float
     pair_log10_k_obs: float
     lambda_kJ: float
+    #: For a semiclassical prediction: the semiclassical curve (k_obs, capped like the classical one) and the
+    #: -Delta G deg' of its maximum, where its inverted region begins (kJ/mol); None otherwise.
+    semiclassical_log10_k_obs: np.ndarray | None = None
+    semiclassical_top_kJ: float | None = None
 
 
 @dataclass(frozen=True)
@@ -90,7 +94,10 @@ def driving_force_curve(prediction: Prediction, points: int = 601) -> DrivingFor
         points: number of axis points (>= 3).
 
     Returns:
-        DrivingForceCurve; the axis runs from -0.5 lambda12 to 2.5 lambda12, widened to include the pair.
+        DrivingForceCurve; the axis runs from -0.5 lambda12 to 2.5 lambda12, widened to include the pair. For a
+        semiclassical prediction both curves are given: the classical one (log10_k_act, log10_k_obs, the
+        regions from lambda12) and the semiclassical one (the classical k_act times the prediction's quantum
+        factor Q(-x), services.rate_model), with the position of its maximum.
     """
     p = prediction
     lam_kJ = p.lambda_kJ_per_mol
@@ -104,7 +111,21 @@ def driving_force_curve(prediction: Prediction, points: int = 601) -> DrivingFor
     ln_act, ln_obs = marcus_curve(
         x * KJ, lam_kJ * KJ, p.work_kJ_per_mol.w12 * KJ, T, ln_Z, ln_kD, ln_kappa12=float(np.log(p.kappa_el12))
     )
+    sc_obs = sc_top = None
+    if p.rate_model == "semiclassical" and p.semiclassical:
+        from ..core.diffusion import ln_k_observed
+        from ..core.semiclassical import ln_quantum_factor
+        from .rate_model import J_PER_MOL_PER_CM1
+
+        lv = p.semiclassical["lambda_in12_kJ_per_mol"] * KJ
+        lam = lam_kJ * KJ
+        ln_sc = np.asarray(ln_act) + ln_quantum_factor(-x * KJ, lam - lv, lv,
+                                                        p.semiclassical["hbar_omega_cm1"] * J_PER_MOL_PER_CM1, T)
+        sc_top = float(x[int(np.argmax(ln_sc))])
+        sc_obs = (ln_k_observed(ln_sc, ln_kD) if ln_kD is not None else ln_sc) / LN10
     return DrivingForceCurve(
+        semiclassical_log10_k_obs=sc_obs,
+        semiclassical_top_kJ=sc_top,
         minus_dG0_prime_kJ=x,
         log10_k_act=np.asarray(ln_act) / LN10,
         log10_k_obs=np.asarray(ln_obs) / LN10,

@@ -267,7 +267,7 @@ def check_measured(
         predicted (file:line: field: message), before any result is returned.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions)
+    require_conditions(conditions, classical_only="the measured-rate check")
     if not isinstance(rows, list | tuple):
         raise ArgumentError(f"rows: got {type(rows).__name__}; expected a list of MeasuredRow (from read_measured_csv)")
     base = conditions or Conditions()

@@ -130,7 +130,7 @@ def rate_map(
         RateMap (log10(M^-1 s^-1), NaN where not computable). Raises UnknownCoupleError, ConditionsError.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions)
+    require_conditions(conditions, classical_only="the rate map")
     cond = conditions or Conditions()
     a = couple_set.arrays
     idx = np.arange(len(couple_set), dtype=np.intp) if ids is None else couple_set.index_of(list(ids))

@@ -136,7 +136,7 @@ def screen(
         ScreenResult, fastest first. Raises UnknownCoupleError, ConditionsError or ScienceError.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions)
+    require_conditions(conditions, classical_only="screening")
     if role not in ROLES:
         raise ConditionsError(f"role {role!r}: expected 'oxidant' or 'reductant'")
     if min_k is not None and not (np.isfinite(min_k) and min_k > 0):

@@ -14,6 +14,7 @@ from crossrate.tui.commands import ACTIONS
 from crossrate.tui.screens.workbench import WorkbenchScreen
 from crossrate.tui.widgets.couple_table import CoupleTable
 from crossrate.tui.widgets.heat_map import HeatMap
+from crossrate.tui.widgets.prediction_panel import PredictionPanel
 
 
 async def _ready(pilot):
@@ -441,3 +442,34 @@ def test_every_key_is_in_the_help_and_every_action_in_the_palette():
         assert key.split(" ")[0] in con_text
     for words in ("PgUp", "Home End", "ctrl+p", "ctrl+q", "tab / esc", "enter"):
         assert words in con_text
+
+
+@run_async
+async def test_model_toggle_gives_the_semiclassical_prediction_and_both_curves():
+    cs = CoupleSet(small_couples())
+    app = _app(cs)
+    async with app.run_test(size=(100, 30)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("o", *["down"] * 5, "r", "2", "tab")
+        for _ in range(10):
+            if app.focused.id == "cond-model":
+                break
+            await pilot.press("tab")
+        assert app.focused.id == "cond-model"
+        await pilot.press("space")
+        await _settle(pilot, screen)
+        want = predict(cs, "hl-osmium", "hl-vanadium", Conditions(rate_model="semiclassical"), samples=0)
+        assert screen.prediction.rate_model == "semiclassical"
+        assert screen.prediction.log10_k_obs == pytest.approx(want.log10_k_obs, abs=1e-12)
+        panel = str(screen.query_one(PredictionPanel).content)  # the panel scrolls: read all of it
+        assert "quantum factor" in panel and "λ12 split" in panel
+        await pilot.press("escape", "3")
+        await pilot.pause()
+        text = screen_text(app)
+        assert "semiclassical" in text and "classical" in text and "inverted past it" in text
+        await pilot.press("6")  # the map stays classical and says so
+        for _ in range(100):
+            await pilot.pause(0.02)
+            if "classical model (no semiclassical map)" in screen_text(app):
+                break
+        assert "classical model (no semiclassical map)" in screen_text(app)

@@ -323,7 +323,11 @@ class WorkbenchLogic:
             heat.message("No couples in view (change the filter in the couples view).")
             return
         heat.message(f"computing the map of {len(ids)} couples...")
-        self.run_map(ids, self.conditions, f"{len(ids)} couples in {medium} (the couples view's filter)")
+        cond, model_note = self.conditions, ""
+        if cond is not None and cond.rate_model != "classical":
+            # The map has the classical model only: say so rather than mix models silently.
+            cond, model_note = cond.with_(rate_model="classical"), "; classical model (no semiclassical map)"
+        self.run_map(ids, cond, f"{len(ids)} couples in {medium} (the couples view's filter){model_note}")
 
     def service_map(self, ids, cond):
         from ...services.rate_map import rate_map

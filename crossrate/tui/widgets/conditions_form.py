@@ -18,7 +18,8 @@ DEBOUNCE_S = 0.12
 
 
 class ConditionsForm(Vertical):
-    """Temperature, ionic strength, medium, Z, diffusion cap and mixed media."""
+    """Temperature, ionic strength, medium, Z, diffusion cap, mixed media and the rate model (classical, or
+    semiclassical when its box is ticked)."""
 
     class Changed(Message):
         """Valid conditions were entered."""
@@ -59,6 +60,7 @@ class ConditionsForm(Vertical):
         yield FieldInput("1e11", id="cond-Z", compact=True)
         yield PlainCheckbox("diffusion cap", True, id="cond-diffusion", compact=True)
         yield PlainCheckbox("allow mixed media", False, id="cond-mixed", compact=True)
+        yield PlainCheckbox("semiclassical model", False, id="cond-model", compact=True)
         yield Static("", id="cond-message", markup=False)
 
     def set_media(self, keys: list[str]) -> None:
@@ -97,6 +99,7 @@ class ConditionsForm(Vertical):
                 Z=Z,
                 diffusion=self.query_one("#cond-diffusion", Checkbox).value,
                 allow_mixed_media=self.query_one("#cond-mixed", Checkbox).value,
+                rate_model="semiclassical" if self.query_one("#cond-model", Checkbox).value else "classical",
             )
         except ConditionsError as exc:
             text = str(exc)

@@ -55,6 +55,13 @@ def prediction_text(p: Prediction, unit: str, note: str = "") -> Text:
     line("λ22", energy_text(p.lambda22_kJ_per_mol, unit, signed=False))
     line("λ12", energy_text(p.lambda_kJ_per_mol, unit, signed=False))
     line("ΔG‡", energy_text(p.dG_act_kJ_per_mol, unit))
+    if p.rate_model == "semiclassical" and p.semiclassical:
+        q = p.semiclassical
+        line("model", f"semiclassical: k_act x quantum factor Q = {rate_text(q['log10_quantum_factor'])} "
+                      "(Q = 1 at ΔG°' = 0)")
+        line("λ12 split", f"inner {energy_text(q['lambda_in12_kJ_per_mol'], unit, signed=False)}, outer "
+                          f"{energy_text(q['lambda_out12_kJ_per_mol'], unit, signed=False)}, "
+                          f"ħω {q['hbar_omega_cm1']:g} cm⁻¹")
     line("f12, W12", f"ln f12 = {p.ln_f12:.3f}, ln W12 = {p.ln_W12:.3f}")
     line("w11, w22", f"{energy_text(w.w11, unit)}, {energy_text(w.w22, unit)}")
     line("w12, w21", f"{energy_text(w.w12, unit)}, {energy_text(w.w21, unit)}")

@@ -72,6 +72,8 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
     f = energy_factor(unit)
     xs = [x * f for x in curve.minus_dG0_prime_kJ]
     act, obs = list(curve.log10_k_act), list(curve.log10_k_obs)
+    if curve.semiclassical_log10_k_obs is not None:
+        act = act + list(curve.semiclassical_log10_k_obs)  # the axis range covers both models' curves
     top = math.ceil(max(max(act), max(obs)) + 0.5)
     extras = [curve.pair_log10_k_obs] + ([measured] if measured is not None else [])
     # Show the curve down to 14 decades below its top, and always the pair and the measured value.
@@ -84,8 +86,17 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
         cv.vline(reg.low_kJ * f, "dim", every=2)
     if curve.log10_k_diff is not None:
         cv.hline(curve.log10_k_diff, "dim", every=4)
-    cv.line(xs, act, "yellow", every=2)
-    cv.line(xs, obs, "cyan")
+    sc = curve.semiclassical_log10_k_obs
+    if sc is not None:
+        # Both models: the classical curve dimmed, the semiclassical one (the prediction's) in full, and a
+        # dotted mark where each curve tops out (past it: that model's inverted region).
+        cv.line(xs, obs, "cyan", every=3)
+        cv.line(xs, list(sc), "magenta")
+        cv.vline(curve.lambda_kJ * f, "cyan", every=3)
+        cv.vline(curve.semiclassical_top_kJ * f, "magenta", every=3)
+    else:
+        cv.line(xs, act, "yellow", every=2)
+        cv.line(xs, obs, "cyan")
     # Region names on a line of their own above the plot, so they never hide the top of the curve.
     names = [" "] * cols
     for reg in curve.regions:
@@ -126,7 +137,11 @@ def curve_lines(curve: DrivingForceCurve, width: int, height: int, unit: str, me
     out.append("└" + "".join(axis)[: cols - 1] + "\n", style="dim")
     out.append(" " * (AXIS + 1))
     out.append("".join(labels) + "\n", style="dim")
-    items = ["── k_obs (diffusion-capped)", "··· k_act", "● this pair"]
+    if curve.semiclassical_log10_k_obs is not None:
+        items = ["── semiclassical k_obs", "·· classical k_obs", "┆ each model's top (inverted past it)",
+                 "● this pair"]
+    else:
+        items = ["── k_obs (diffusion-capped)", "··· k_act", "● this pair"]
     items += ["x measured"] if measured is not None else []
     items += ["- - k_D (diffusion limit)"] if curve.log10_k_diff is not None else []
     out.append("\n".join(wrap_items(items, width, 2)))
