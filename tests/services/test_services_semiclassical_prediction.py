@@ -141,3 +141,13 @@ def test_cli_json(lib, capsys):
     assert out["rate_model"] == "semiclassical"
     assert out["semiclassical"]["hbar_omega_cm1"] == 1200.0
     assert {"lambda_in12_kJ_per_mol", "lambda_out12_kJ_per_mol", "log10_quantum_factor"} <= set(out["semiclassical"])
+
+
+def test_classical_only_services_refuse_the_semiclassical_model(cs):
+    from crossrate.services.rate_map import rate_map
+    from crossrate.services.screening import screen
+
+    with pytest.raises(ConditionsError, match="the rate map uses the classical model only"):
+        rate_map(cs, conditions=SEMI)
+    with pytest.raises(ConditionsError, match="screening uses the classical model only"):
+        screen(cs, "hl-sc-a", "oxidant", conditions=SEMI)
