@@ -68,6 +68,8 @@ def _read_text(p: Path) -> str:
     for bad bytes the line and column, when it cannot be read."""
     if p.is_dir():
         raise InputFileError(f"{p}: cannot be read: it is a folder; expected a CSV file")
+    if p.exists() and not p.is_file():  # a FIFO or a device would block or never end
+        raise InputFileError(f"{p}: cannot be read: not a regular file (a pipe or a device); expected a CSV file")
     try:
         data = p.read_bytes()
     except FileNotFoundError:
