@@ -95,7 +95,7 @@ def random_conditions(rng: np.random.Generator, stats: NumericStats):
         Z, bZ = _draw(rng, *Z_RANGE, log=True)
         stats.conditions_tried += 1
         try:
-            cond = Conditions(temperature_K=T, ionic_strength_M=I if rng.random() < 0.7 else None, Z=Z,
+            cond = Conditions(temperature_K=T, ionic_strength_M=I if rng.random() < 0.9 else None, Z=Z,
                               diffusion=bool(rng.random() < 0.8), allow_mixed_media=True)
         except ConditionsError:
             stats.conditions_refused += 1
