@@ -12,11 +12,15 @@ read once more and compared byte for byte immediately before os.replace moves th
 on POSIX: a reader sees the old file or the new one, never half of one).
 
 What the lock does not cover: a program that edits the file without taking the lock (a text editor, a
-script appending a line) and lands its edit in the microseconds between that last comparison and the
-rename. Such an edit goes to the replaced version of the file; crossrate reads that version again after the
-rename, and when it differs it is saved as `<name>.conflict-<time>` and the write is reported as a conflict
-(the edit is kept, not lost). An edit that lands after that second read, by a program that opened the file
-before the rename, is outside what any lock-free scheme can see.
+script appending a line). Its edit is caught in three ways. Made before the last comparison, it makes the
+write refuse. A program that has the file open for writing when crossrate is about to write makes it refuse
+too ("open for writing right now"). Made in the instant between the last comparison and the rename, it goes
+to the replaced version: crossrate holds a read lease on that version (replaced_version.py), so it knows
+when another program opened it for writing, waits until that program has closed it, reads it again, and
+when it differs saves it as `<name>.conflict-<time>` and reports a conflict (the edit is kept, not lost).
+Where no lease can be taken (another user's file, a network file system), the replaced version is read
+again after a short pause; a program that opened the file before the rename and writes to it after that
+look is then outside what crossrate can see.
 """
 
 import os
@@ -29,6 +33,7 @@ from pathlib import Path
 
 from ..errors import ConflictError
 from .file_lock import LOCK_TIMEOUT_S, LibraryWriteError, acquire, lock_path, open_lock
+from .replaced_version import OpenForWriting, ReplacedVersionWatch
 from .toml_reader import sha256_of
 
 __all__ = ["LOCK_TIMEOUT_S", "LibraryWriteError", "SafeWriter", "backup_path", "lock_path", "remove_leftovers"]
@@ -118,6 +123,7 @@ class SafeWriter:
 
     def _write_locked(self, target: Path, data: bytes, expected_sha256: str | None) -> None:
         cur_fd, old, st = self._open_current(target)
+        watch = None
         try:
             current_sha = None if old is None else sha256_of(old)
             if current_sha != expected_sha256:
@@ -133,6 +139,12 @@ class SafeWriter:
                     f"{self.path}: has {st.st_nlink} names (hard links); replacing it would leave the other names "
                     "with the old text; expected a file with one name: share it by a symbolic link instead "
                     "(nothing was written)")
+            if cur_fd is not None:
+                try:
+                    watch = ReplacedVersionWatch(cur_fd)
+                except OpenForWriting:
+                    raise ConflictError(f"{self.path}: another program has it open for writing right now; nothing "
+                                        "was written: try again in a moment") from None
             try:
                 if old is not None:
                     self._replace_atomically(backup_path(target), old, st)
@@ -140,9 +152,12 @@ class SafeWriter:
             except OSError as exc:
                 raise LibraryWriteError(f"{self.path}: could not be written ({exc.strerror or exc}); "
                                         "the file was not changed") from None
-            if cur_fd is not None:
+            if watch is not None:
+                watch.settle()  # a program that opened the old version meanwhile has finished with it
                 self._check_replaced_version(cur_fd, old, target)
         finally:
+            if watch is not None:
+                watch.release()
             if cur_fd is not None:
                 os.close(cur_fd)
 

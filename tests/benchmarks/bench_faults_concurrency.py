@@ -20,10 +20,11 @@ def main() -> int:
     adds = int(sys.argv[2]) if len(sys.argv) > 2 else 10
     seed = int(sys.argv[3]) if len(sys.argv) > 3 else 16
     scratch = prepare()
+    from concurrency_runner import run_concurrency
+
     import crossrate.cli.library_cmd  # noqa: F401  (imported before the forks)
     import crossrate.cli.main  # noqa: F401
     import crossrate.library.couple_edits  # noqa: F401
-    from concurrency_runner import run_concurrency
 
     bad = 0
     print(f"concurrent writers: {rounds} rounds per writer count, {adds} couples per writer, 40 outside lines per "

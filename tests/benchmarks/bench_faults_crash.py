@@ -19,12 +19,13 @@ def main() -> int:
     rounds = int(sys.argv[1]) if len(sys.argv) > 1 else 120
     seed = int(sys.argv[2]) if len(sys.argv) > 2 else 16
     scratch = prepare()
+    from crash_runner import KINDS, crash_rounds
+
     import crossrate.cli.library_cmd  # noqa: F401  (imported before the forks)
     import crossrate.cli.main  # noqa: F401
     import crossrate.cli.map_cmd  # noqa: F401
     import crossrate.library.couple_edits  # noqa: F401
     import crossrate.tui.library_access  # noqa: F401
-    from crash_runner import KINDS, crash_rounds
 
     total_fail = 0
     total = 0

@@ -4,8 +4,8 @@
 Generates a seeded corpus (default 12,000 library files over 12 kinds: random bytes, truncated files, wrong
 types, huge/tiny/NaN/inf numbers, unicode, BOM and other encodings, CRLF and other line ends, duplicate ids
 and keys, deep nesting, path-like ids, odd structures, random byte edits; and 6,000 CSV files for check,
-solve and fit) and checks every file as tests/faults/fault_corpus.py describes: no traceback, every message
-names the file (and the line where there is one), exit 2 from `library validate` for every invalid file, no
+solve, fit and library import) and checks every file as tests/faults/fault_corpus.py describes: no
+traceback, every message names the file (and the line where there is one), exit 2 from `library validate` for every invalid file, no
 invalid value accepted. Prints what was tried, how many, what failed; exit status 1 on any failure.
 """
 
@@ -22,7 +22,13 @@ def main() -> int:
     n_csv = int(sys.argv[2]) if len(sys.argv) > 2 else 6000
     seed = int(sys.argv[3]) if len(sys.argv) > 3 else 16
     scratch = prepare()
-    from fault_corpus import check_csv_file, check_library_file, check_validate_command, csv_corpus, library_corpus
+    from fault_corpus import (
+        check_csv_file,
+        check_library_file,
+        check_validate_command,
+        csv_corpus,
+        library_corpus,
+    )
 
     t0 = time.perf_counter()
     per_kind = collections.defaultdict(collections.Counter)

@@ -283,6 +283,9 @@ VALID_CSV = {
     "partner": "partner,k_measured,k_measured_log10_sd,role,temperature,ionic_strength,medium\n"
                "hl-a,1.0e4,0.2,oxidant,298.15,0.1,water\nhl-c,5.0e2,,auto,,,\n",
     "series": "dG0_kJ_per_mol,k_obs,log10_sd,label\n-10,1e4,0.1,a\n-30,1e6,0.1,b\n-60,1e8,0.1,c\n-90,3e9,0.1,d\n",
+    "import": "id,name,charge_ox,charge_red,E,E_scale,k_self,radius,medium,ionic_strength,temperature,source,tags\n"
+              "hl-x,Halden X,3,2,0.5,SHE,1e3,4.0,water,0.1,298.15,invented,a;b\n"
+              "hl-y,'=Halden Y,1,0,-0.2,SHE,,6.5,acetonitrile,0.0,300,invented,\n",
 }
 CSV_ODD_CELLS = ODD_NUMBERS + ("", " ", "abc", "1e6 M-1s-1", "300 K", "=1+2", "@SUM(1)", "-", "+", "1,5", '"1"',
                                "\x00", "é", "waterr", "oxidant", "reductant", "maybe", "1e-320", "-0", "0")
@@ -334,11 +337,11 @@ def case_unicode_text(rng: random.Random, base: str) -> bytes:
 
 
 def csv_corpus(n: int, seed: int):
-    """n (input kind, case kind, bytes) CSV files over the three inputs (check, solve, fit)."""
+    """n (input kind, case kind, bytes) CSV files over the inputs of check, solve, fit and library import."""
     rng = random.Random(seed)
-    kinds = ("measured", "partner", "series")
+    kinds = tuple(VALID_CSV)
     for i in range(n):
-        kind = kinds[i % 3]
+        kind = kinds[i % len(kinds)]
         case, data = csv_case(rng, kind)
         yield kind, case, data
 
@@ -351,6 +354,8 @@ def check_csv_file(path: Path, kind: str) -> tuple[str, list[str]]:
     from crossrate.services.conditions import IONIC_STRENGTH_MAX_M, TEMPERATURE_RANGE_K
     from crossrate.services.measured_csv import read_measured_csv, read_partner_csv, read_series_csv
 
+    if kind == "import":
+        return _check_import_csv(path)
     reader = {"measured": read_measured_csv, "partner": read_partner_csv, "series": read_series_csv}[kind]
     try:
         out = reader(path)
@@ -382,4 +387,26 @@ def check_csv_file(path: Path, kind: str) -> tuple[str, list[str]]:
         need(r.ionic_strength is None or 0 <= r.ionic_strength <= IONIC_STRENGTH_MAX_M,
              f"ionic strength {r.ionic_strength!r}")
         need(r.medium is None or r.medium in media, f"medium {r.medium!r}")
+    return "valid", failures
+
+
+def _check_import_csv(path: Path) -> tuple[str, list[str]]:
+    """`library import`'s reader: LibraryError whose problems name the file, or couples that keep the rules."""
+    from crossrate.errors import LibraryError
+    from crossrate.library.couple_check import built_couple_problems
+    from crossrate.library.couple_import import read_couples_csv
+
+    try:
+        couples = read_couples_csv(path)
+    except LibraryError as exc:
+        bad = [str(p) for p in exc.problems if not str(p).startswith(str(path))]
+        return "invalid", [f"problem without the file name: {b[:200]}" for b in bad[:3]]
+    except BaseException:
+        return "crash", [traceback.format_exc(limit=3)]
+    failures = [f"invalid value accepted: {p}" for c in couples for p in built_couple_problems(c)]
+    for c in couples:
+        for name in NUMERIC_FIELDS:
+            v = getattr(c, name)
+            if v is not None and not math.isfinite(v):
+                failures.append(f"non-finite value accepted: couple {c.id} {name} = {v!r}")
     return "valid", failures

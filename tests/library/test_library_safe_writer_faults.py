@@ -11,6 +11,7 @@ import pytest
 from library_helpers import BASE
 
 from crossrate.errors import ConflictError
+from crossrate.library import safe_writer
 from crossrate.library.safe_writer import LibraryWriteError, SafeWriter, backup_path, lock_path
 from crossrate.library.toml_reader import sha256_of
 
@@ -21,9 +22,45 @@ def _sha(p):
     return sha256_of(Path(p).read_bytes())
 
 
-def test_outside_edit_after_the_temporary_is_written_is_refused(base_file, monkeypatch):
-    # Another program (no lock) appends while crossrate fsyncs its temporary: the last check before the
-    # rename sees it, nothing is written and the outside edit stays.
+def _append_from_another_process(path, text: str) -> int:
+    """Fork a process that appends text to path (no lock, as another program would); its pid, returned once
+    the child is about to open the file (and, a moment later, inside open())."""
+    import time
+
+    r, w = os.pipe()
+    pid = os.fork()
+    if pid == 0:
+        try:
+            os.close(r)
+            os.write(w, b"x")
+            with open(path, "a") as fh:
+                fh.write(text)
+        finally:
+            os._exit(0)
+    os.close(w)
+    os.read(r, 1)
+    os.close(r)
+    time.sleep(0.02)
+    return pid
+
+
+class _NoLease:
+    """A file system without leases (a network share): the watch only pauses."""
+
+    def __init__(self, fd):
+        self.leased = False
+
+    def settle(self):
+        return None
+
+    def release(self):
+        return None
+
+
+def test_outside_edit_before_the_last_check_is_refused(base_file, monkeypatch):
+    # Another program (no lock) appends to the file and closes it after crossrate read it: the comparison
+    # before the rename sees it, nothing is written and the outside edit stays.
+    monkeypatch.setattr(safe_writer, "ReplacedVersionWatch", _NoLease)
     sha = _sha(base_file)
     real = os.fsync
     calls = {"n": 0}
@@ -32,36 +69,37 @@ def test_outside_edit_after_the_temporary_is_written_is_refused(base_file, monke
         real(fd)
         calls["n"] += 1
         if calls["n"] == 3:  # 1 backup temporary, 2 folder, 3 the new text's temporary
-            with open(base_file, "a") as fh:
-                fh.write("# appended by another program\n")
+            os.waitpid(_append_from_another_process(base_file, "# appended by another program\n"), 0)
 
+    writer = SafeWriter(base_file)
     monkeypatch.setattr(os, "fsync", fsync_then_outside_edit)
     with pytest.raises(ConflictError, match="changed on disk while crossrate was writing it.*nothing was written"):
-        SafeWriter(base_file).write(NEW, sha)
+        writer.write(NEW, sha)
     monkeypatch.undo()
     assert base_file.read_text() == BASE + "# appended by another program\n"
     assert not [p for p in base_file.parent.iterdir() if p.suffix == ".tmp"]
 
 
-def test_outside_edit_at_the_rename_is_saved_and_reported(base_file, monkeypatch):
-    # The outside append lands on the old version in the instant of the rename: crossrate's edit is in place,
-    # the other program's version is saved beside it and the write is reported as a conflict.
+def test_outside_edit_during_the_write_is_saved_and_reported(base_file, monkeypatch):
+    # Another program appends while crossrate writes its temporary: the read lease holds it back until the
+    # rename, then crossrate lets it finish, finds its line in the replaced version and saves that version.
     sha = _sha(base_file)
-    real = os.replace
+    real = os.fsync
+    calls = {"n": 0}
+    children = []
 
-    def append_then_replace(src, dst):
-        if Path(dst) == base_file:
-            with open(base_file, "a") as fh:
-                fh.write("# appended at the rename\n")
-            # the last check already ran; the append went to the version being replaced
-        return real(src, dst)
+    def fsync_then_outside_edit(fd):
+        real(fd)
+        calls["n"] += 1
+        if calls["n"] == 3:
+            children.append(_append_from_another_process(base_file, "# appended at the rename\n"))
 
-    writer = SafeWriter(base_file)
-    monkeypatch.setattr(writer, "_last_check", lambda *a: None)
-    monkeypatch.setattr(os, "replace", append_then_replace)
+    monkeypatch.setattr(os, "fsync", fsync_then_outside_edit)
     with pytest.raises(ConflictError, match=r"another program changed it at the moment.*saved as lib\.toml\.conflict-"):
-        writer.write(NEW, sha)
+        SafeWriter(base_file).write(NEW, sha)
     monkeypatch.undo()
+    for pid in children:
+        os.waitpid(pid, 0)
     assert base_file.read_text() == NEW
     saved = [p for p in base_file.parent.iterdir() if ".conflict-" in p.name]
     assert len(saved) == 1 and saved[0].read_text() == BASE + "# appended at the rename\n"
@@ -227,4 +265,56 @@ def test_unreadable_lock_file_is_reported_as_such(open_folder):
     assert code == 1
     assert "the lock file .lib.toml.lock exists but you may not read it" in msg
     assert "cannot create" not in msg
+    assert base_file.read_text() == BASE
+
+
+def test_outside_program_holding_the_old_version_open_across_the_rename(base_file, monkeypatch):
+    # Another program opens the file for appending just before the rename and writes well after it (a slow
+    # or descheduled script): the read lease tells crossrate, which waits for it to close the file and saves
+    # its version. Without the lease the line would go into an unnamed file and be lost.
+    import time
+
+    sha = _sha(base_file)
+    real = os.replace
+    children = []
+
+    def replace_with_a_slow_appender(src, dst):
+        if Path(dst) == base_file:
+            pid = os.fork()
+            if pid == 0:
+                try:
+                    with open(base_file, "a") as fh:  # resolves the old version, held until the lease is let go
+                        time.sleep(0.05)
+                        fh.write("# written late by a slow program\n")
+                finally:
+                    os._exit(0)
+            children.append(pid)
+            time.sleep(0.05)  # the child is now inside open()
+        return real(src, dst)
+
+    monkeypatch.setattr(os, "replace", replace_with_a_slow_appender)
+    with pytest.raises(ConflictError, match="saved as lib.toml.conflict-"):
+        SafeWriter(base_file).write(NEW, sha)
+    monkeypatch.undo()
+    for pid in children:
+        os.waitpid(pid, 0)
+    assert base_file.read_text() == NEW
+    saved = [p for p in base_file.parent.iterdir() if ".conflict-" in p.name]
+    assert len(saved) == 1 and saved[0].read_text().endswith("# written late by a slow program\n")
+
+
+def test_file_open_for_writing_elsewhere_is_refused(base_file):
+    import subprocess
+    import sys
+
+    holder = subprocess.Popen([sys.executable, "-c", f"import time; f = open({str(base_file)!r}, 'a'); "
+                               "print('open', flush=True); time.sleep(30)"], stdout=subprocess.PIPE, text=True)
+    try:
+        assert holder.stdout.readline().strip() == "open"
+        with pytest.raises(ConflictError, match="another program has it open for writing right now; nothing was "
+                           "written: try again"):
+            SafeWriter(base_file).write(NEW, _sha(base_file))
+    finally:
+        holder.kill()
+        holder.wait()
     assert base_file.read_text() == BASE
