@@ -3,9 +3,10 @@ without taking crossrate's lock.
 
 On Linux a read lease (fcntl F_SETLEASE) on the open file tells whether any other process opened it for
 writing while crossrate held the lease: the opener is held until the lease is released, and the lease then
-reports the break. So: take the lease before the last comparison, rename the new version into place, and if
-the lease was broken, let the other program go on and wait until it has closed the file; its edit is then
-in the replaced version, where SafeWriter finds it and saves it. Where leases are not available (another
+reports the break. So: take the lease before the last comparison; if it was broken by then, refuse the write
+(the other program goes on as if crossrate had not been there); otherwise rename the new version into place,
+and if the lease was broken in that last instant, let the other program go on and wait until it has closed
+the file; its edit is then in the replaced version, where SafeWriter finds it and saves it. Where leases are not available (another
 user's file without CAP_LEASE, a network file system), a short pause before that last look stands in.
 """
 
@@ -40,6 +41,15 @@ class ReplacedVersionWatch:
             if exc.errno == errno.EAGAIN:
                 raise OpenForWriting from None
             # EACCES (another user's file), EINVAL/ENOSYS (file system without leases): no lease
+
+    def broken(self) -> bool:
+        """True when another process has opened the file for writing since the lease was taken."""
+        if not self.leased:
+            return False
+        try:
+            return fcntl.fcntl(self.fd, fcntl.F_GETLEASE) != fcntl.F_RDLCK
+        except OSError:
+            return False
 
     def settle(self) -> None:
         """After the rename: return once no other program still has the replaced version open for writing

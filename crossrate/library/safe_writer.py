@@ -84,6 +84,7 @@ class SafeWriter:
         self.path = Path(path)
         self.validate = validate
         self.lock_timeout_s = lock_timeout_s
+        self._watch = None  # the read lease on the version being replaced, during a write
 
     def target(self) -> Path:
         """The file a write changes: the path itself, or the file its symbolic link(s) lead to."""
@@ -141,7 +142,7 @@ class SafeWriter:
                     "(nothing was written)")
             if cur_fd is not None:
                 try:
-                    watch = ReplacedVersionWatch(cur_fd)
+                    watch = self._watch = ReplacedVersionWatch(cur_fd)
                 except OpenForWriting:
                     raise ConflictError(f"{self.path}: another program has it open for writing right now; nothing "
                                         "was written: try again in a moment") from None
@@ -156,6 +157,7 @@ class SafeWriter:
                 watch.settle()  # a program that opened the old version meanwhile has finished with it
                 self._check_replaced_version(cur_fd, old, target)
         finally:
+            self._watch = None
             if watch is not None:
                 watch.release()
             if cur_fd is not None:
@@ -246,6 +248,9 @@ class SafeWriter:
         if not same:
             raise ConflictError(f"{self.path}: changed on disk while crossrate was writing it (edited by another "
                                 "program); nothing was written: reload the file and make the edit again")
+        if self._watch is not None and self._watch.broken():
+            raise ConflictError(f"{self.path}: another program opened it for writing while crossrate was writing it; "
+                                "nothing was written: try again in a moment")
 
 
 def _copy_owner_and_mode(fd: int, st: os.stat_result) -> None:

@@ -95,8 +95,9 @@ def random_conditions(rng: np.random.Generator, stats: NumericStats):
         Z, bZ = _draw(rng, *Z_RANGE, log=True)
         stats.conditions_tried += 1
         try:
+            # couples of every medium are mixed on purpose (each pair is then computed in the oxidant's medium)
             cond = Conditions(temperature_K=T, ionic_strength_M=I if rng.random() < 0.9 else None, Z=Z,
-                              diffusion=bool(rng.random() < 0.8), allow_mixed_media=True)
+                              diffusion=bool(rng.random() < 0.8), allow_mixed_media=True, allow_E_other_medium=True)
         except ConditionsError:
             stats.conditions_refused += 1
             if not (bT or bI or bZ):
@@ -172,7 +173,7 @@ def cli_json_round(rng: np.random.Generator, folder, n_couples: int, stats: Nume
     path.write_text(export_toml(couples, CoupleSet(couples).scales), encoding="utf-8")
     cond = random_conditions(rng, stats)
     opts = ["--temperature", repr(cond.temperature_K), "--Z", repr(cond.Z), "--allow-mixed-media",
-            "--medium", "water"]
+            "--allow-E-other-medium", "--medium", "water"]
     if cond.ionic_strength_M is not None:
         opts += ["--ionic-strength", repr(cond.ionic_strength_M)]
     for argv in (["map", "--format", "json", *opts],

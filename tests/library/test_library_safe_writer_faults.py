@@ -80,9 +80,9 @@ def test_outside_edit_before_the_last_check_is_refused(base_file, monkeypatch):
     assert not [p for p in base_file.parent.iterdir() if p.suffix == ".tmp"]
 
 
-def test_outside_edit_during_the_write_is_saved_and_reported(base_file, monkeypatch):
-    # Another program appends while crossrate writes its temporary: the read lease holds it back until the
-    # rename, then crossrate lets it finish, finds its line in the replaced version and saves that version.
+def test_outside_edit_during_the_write_is_refused_and_kept(base_file):
+    # Another program opens the file to append while crossrate writes its temporary: the read lease holds
+    # it back and tells crossrate, which refuses the write before the rename and lets the other program go on.
     sha = _sha(base_file)
     real = os.fsync
     calls = {"n": 0}
@@ -92,17 +92,19 @@ def test_outside_edit_during_the_write_is_saved_and_reported(base_file, monkeypa
         real(fd)
         calls["n"] += 1
         if calls["n"] == 3:
-            children.append(_append_from_another_process(base_file, "# appended at the rename\n"))
+            children.append(_append_from_another_process(base_file, "# appended during the write\n"))
 
-    monkeypatch.setattr(os, "fsync", fsync_then_outside_edit)
-    with pytest.raises(ConflictError, match=r"another program changed it at the moment.*saved as lib\.toml\.conflict-"):
-        SafeWriter(base_file).write(NEW, sha)
-    monkeypatch.undo()
+    os.fsync = fsync_then_outside_edit
+    try:
+        with pytest.raises(ConflictError, match="another program opened it for writing while crossrate was writing "
+                           "it; nothing was written: try again"):
+            SafeWriter(base_file).write(NEW, sha)
+    finally:
+        os.fsync = real
     for pid in children:
         os.waitpid(pid, 0)
-    assert base_file.read_text() == NEW
-    saved = [p for p in base_file.parent.iterdir() if ".conflict-" in p.name]
-    assert len(saved) == 1 and saved[0].read_text() == BASE + "# appended at the rename\n"
+    assert base_file.read_text() == BASE + "# appended during the write\n"
+    assert not [p for p in base_file.parent.iterdir() if ".conflict-" in p.name or p.suffix == ".tmp"]
 
 
 def test_leftovers_of_a_crashed_write_are_removed_by_the_next_write(base_file):
