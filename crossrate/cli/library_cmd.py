@@ -5,6 +5,7 @@ A thin face over crossrate.library: reading, validation, layering and the safe, 
 all live there. Exit 0 on success, 2 with `path:line: ...` messages on stderr for bad input.
 """
 
+import os
 import sys
 from pathlib import Path
 
@@ -336,8 +337,16 @@ def run_add(args) -> int:
     if problems:
         raise LibraryError(problems)
     add_couple(path, res, sha, known_scales=scales)
-    print(f"added couple {couple_id} to {path}" + ("" if sha is None else f" (previous version kept as {path}.bak)"))
+    print(f"added couple {couple_id} to {path}" + ("" if sha is None else f" (previous version kept as {_bak(path)})"))
     return 0
+
+
+def _bak(path) -> str:
+    """Where the previous version went: beside the file itself (beside the target of a symbolic link)."""
+    from ..library.safe_writer import backup_path
+
+    p = Path(path)
+    return str(backup_path(Path(os.path.realpath(p)) if p.is_symlink() else p))
 
 
 def _require_couple(lf, path, couple_id: str) -> None:
@@ -372,6 +381,6 @@ def run_remove(args) -> int:
     lf = read_library_file(args.file, known_scales=known)
     _require_couple(lf, args.file, args.couple_id)
     remove_couple(args.file, args.couple_id, lf.sha256, known_scales=known)
-    print(f"removed couple {args.couple_id} from {args.file} (previous version kept as {args.file}.bak)")
+    print(f"removed couple {args.couple_id} from {args.file} (previous version kept as {_bak(args.file)})")
     return 0
 
