@@ -286,6 +286,8 @@ VALID_CSV = {
     "import": "id,name,charge_ox,charge_red,E,E_scale,k_self,radius,medium,ionic_strength,temperature,source,tags\n"
               "hl-x,Halden X,3,2,0.5,SHE,1e3,4.0,water,0.1,298.15,invented,a;b\n"
               "hl-y,'=Halden Y,1,0,-0.2,SHE,,6.5,acetonitrile,0.0,300,invented,\n",
+    "candidates": "# computed candidates (invented)\nid,charge_ox,charge_red,E,radius,k_self,name\n"
+                  "c-1,3,2,0.5,4.0,1e3,first\nc-2,1,0,-0.3,6.5,2e5,second\nc-3,0,-1,1.2,3.0,5,third\n",
 }
 CSV_ODD_CELLS = ODD_NUMBERS + ("", " ", "abc", "1e6 M-1s-1", "300 K", "=1+2", "@SUM(1)", "-", "+", "1,5", '"1"',
                                "\x00", "é", "waterr", "oxidant", "reductant", "maybe", "1e-320", "-0", "0")
@@ -356,6 +358,8 @@ def check_csv_file(path: Path, kind: str) -> tuple[str, list[str]]:
 
     if kind == "import":
         return _check_import_csv(path)
+    if kind == "candidates":
+        return _check_candidate_table(path)
     reader = {"measured": read_measured_csv, "partner": read_partner_csv, "series": read_series_csv}[kind]
     try:
         out = reader(path)
@@ -409,4 +413,30 @@ def _check_import_csv(path: Path) -> tuple[str, list[str]]:
             v = getattr(c, name)
             if v is not None and not math.isfinite(v):
                 failures.append(f"non-finite value accepted: couple {c.id} {name} = {v!r}")
+    return "valid", failures
+
+
+def _check_candidate_table(path: Path) -> tuple[str, list[str]]:
+    """`screen --candidates`' reader: LibraryError naming the file, or columns inside the library's ranges."""
+    import numpy as np
+
+    from crossrate.errors import LibraryError
+    from crossrate.library.candidate_table import read_candidate_table
+    from crossrate.library.schema import FIELDS_BY_NAME
+
+    try:
+        t = read_candidate_table(path)
+    except LibraryError as exc:
+        bad = [str(p) for p in exc.problems if not str(p).startswith(str(path))]
+        return "invalid", [f"problem without the file name: {b[:200]}" for b in bad[:3]]
+    except BaseException:
+        return "crash", [traceback.format_exc(limit=3)]
+    failures = []
+    for name, col in (("E", t.E_V), ("radius", t.radius_A), (t.rate_column, t.rate)):
+        v = np.asarray(col, dtype=float)
+        spec = FIELDS_BY_NAME[name]
+        if not np.all(np.isfinite(v)) or not all(spec.in_range(float(x)) for x in v):
+            failures.append(f"accepted {name} out of its range: {v.tolist()[:5]}")
+    if not np.all(np.asarray(t.z_ox) - np.asarray(t.z_red) == 1):
+        failures.append("accepted charges that do not differ by 1")
     return "valid", failures

@@ -126,3 +126,65 @@ def test_any_cell_in_any_csv_column(tmp_path, kind, cell, col):
     p.write_text("\n".join(lines) + "\n", encoding="utf-8")
     verdict, failures = check_csv_file(p, kind)
     assert verdict != "crash" and failures == []
+
+
+def test_csv_inputs_through_the_command_line(tmp_path):
+    # A share of the corpus through the commands themselves: exit 2 for an unreadable input, and nothing on
+    # stderr but crossrate's own lines (no traceback, no library warning).
+    import io
+    import warnings
+    from contextlib import redirect_stderr, redirect_stdout
+
+    from crossrate.cli.main import main
+
+    lib = tmp_path / "lib.toml"
+    lib.write_text(VALID_LIBRARY, encoding="utf-8")
+    commands = {
+        "measured": lambda p: ["check", str(p), "--samples", "200"],
+        "series": lambda p: ["fit", str(p)],
+        "partner": lambda p: ["solve", "k-self", "hl-a", "--from-csv", str(p)],
+        "candidates": lambda p: ["screen", "hl-a", "--role", "oxidant", "--candidates", str(p)],
+    }
+    failures = []
+    for i, (kind, case, data) in enumerate(csv_corpus(60, SEED + 1)):
+        if kind not in commands:
+            continue
+        p = tmp_path / f"cli{i}.csv"
+        p.write_bytes(data)
+        verdict, _ = check_csv_file(p, kind)
+        argv = commands[kind](p)
+        if kind != "series":
+            argv += ["--no-bundled", "--library", str(lib)]
+        err = io.StringIO()
+        with warnings.catch_warnings(record=True) as caught, redirect_stdout(io.StringIO()), redirect_stderr(err):
+            warnings.simplefilter("always")
+            try:
+                rc = main(argv)
+            except SystemExit as exc:  # argparse usage errors
+                rc = exc.code
+        text = err.getvalue()
+        if verdict == "invalid" and rc != 2:
+            failures.append(f"{kind}/{case} #{i}: invalid input, exit {rc}: {text[:200]}")
+        if "Traceback" in text or caught:
+            failures.append(f"{kind}/{case} #{i}: {text[:200]} {[str(w.message) for w in caught][:2]}")
+    assert failures == []
+
+
+def test_header_only_candidate_table_is_one_line(tmp_path):
+    import io
+    import warnings
+    from contextlib import redirect_stderr, redirect_stdout
+
+    from crossrate.cli.main import main
+
+    lib = tmp_path / "lib.toml"
+    lib.write_text(VALID_LIBRARY, encoding="utf-8")
+    cand = tmp_path / "cand.csv"
+    cand.write_text("id,charge_ox,charge_red,E,radius,k_self\n", encoding="utf-8")
+    err = io.StringIO()
+    with warnings.catch_warnings(record=True) as caught, redirect_stdout(io.StringIO()), redirect_stderr(err):
+        warnings.simplefilter("always")
+        rc = main(["screen", "hl-a", "--role", "oxidant", "--candidates", str(cand), "--no-bundled", "--library",
+                   str(lib)])
+    assert rc == 2 and caught == []  # numpy's "input contained no data" stays inside
+    assert err.getvalue().count("\n") == 1 and "a header but no candidates" in err.getvalue()
