@@ -22,6 +22,40 @@ DEFAULT_K_DIFF_LOG10_SD = 0.3
 LN10 = float(np.log(10.0))
 
 
+def percentiles_linear(x, percents) -> np.ndarray:
+    """np.percentile(x, percents) of a 1-D float array with numpy's default "linear" method (Hyndman and Fan
+    definition 7), computed step for step as numpy computes it, so the numbers are the same to the last bit.
+
+    Why not np.percentile itself: it calls np.unique, which imports numpy.ma, about 7 ms of a cold
+    `crossrate predict` that otherwise never needs it. percents in [0, 100]; returns the same units as x.
+    """
+    s = np.sort(np.asarray(x, dtype=float))
+    n = s.shape[0]
+    q = np.true_divide(np.asarray(percents, dtype=float), 100)
+    virtual = (n - 1) * q
+    previous = np.floor(virtual)
+    following = previous + 1
+    above = virtual >= n - 1
+    previous[above] = -1
+    following[above] = -1
+    below = virtual < 0
+    previous[below] = 0
+    following[below] = 0
+    nan = np.isnan(virtual)
+    previous[nan] = -1
+    following[nan] = -1
+    previous = previous.astype(np.intp)
+    following = following.astype(np.intp)
+    a, b = s[previous], s[following]
+    gamma = virtual - previous
+    diff = b - a
+    out = a + diff * gamma
+    np.subtract(b, diff * (1 - gamma), out=out, where=gamma >= 0.5)
+    if np.isnan(s[-1]):  # a NaN sorts last; numpy then gives NaN for every percentile
+        out[...] = np.nan
+    return out
+
+
 @dataclass(frozen=True)
 class InputSpread:
     """Standard deviations of the uncertain inputs: E1_V, E2_V (V), ln_k11, ln_k22 and ln_k_diff (natural
@@ -73,5 +107,5 @@ def monte_carlo(model: Model, spread: InputSpread, samples: int, seed: int | Non
     rng = np.random.default_rng(seed)
     draws = rng.standard_normal((5, samples)) * spread.as_array()[:, None]
     log10_k = np.asarray(model(*draws), dtype=float) / LN10
-    lo, hi = np.percentile(log10_k, [2.5, 97.5])
+    lo, hi = percentiles_linear(log10_k, (2.5, 97.5))
     return float(lo), float(hi), float(np.std(log10_k, ddof=1))

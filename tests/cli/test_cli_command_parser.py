@@ -42,3 +42,28 @@ def test_unknown_command_lists_the_known_ones(run_cli):
     rc, out, err = run_cli("predicts", "a", "b", library=False)
     assert rc == 2
     assert "predict" in err and "screen" in err and "library" in err
+
+
+def test_cold_predict_imports_no_scipy_and_no_numpy_ma(tmp_path):
+    # What a cold `crossrate predict` must not pay for (issue 12, speed): scipy (constants are written in the
+    # core), numpy.ma (np.percentile's import, avoided), the other subcommands' modules.
+    import json
+    import os
+    import subprocess
+
+    root = Path(__file__).resolve().parents[2]
+    code = (
+        "import contextlib, io, json, sys\n"
+        "from crossrate.cli.main import main\n"
+        "with contextlib.redirect_stdout(io.StringIO()):\n"
+        f"    rc = main(['predict', 'hl-iron-a', 'hl-ru-b', '--no-bundled', '--library', {str(TEST_LIBRARY)!r}])\n"
+        "print(json.dumps([rc, sorted(sys.modules)]))\n"
+    )
+    env = dict(os.environ, PYTHONPATH=str(root), XDG_CONFIG_HOME=str(tmp_path), XDG_CACHE_HOME=str(tmp_path / "c"))
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env, cwd=tmp_path,
+                         timeout=120, check=True)
+    rc, modules = json.loads(out.stdout)
+    assert rc == 0
+    loaded = set(modules)
+    for name in ("scipy", "numpy.ma", "textual", "crossrate.cli.screen_cmd", "crossrate.cli.library_cmd"):
+        assert name not in loaded, name
