@@ -1,6 +1,5 @@
 """`crossrate check MEASURED.csv`: measured cross rates against the cross-relation predictions."""
 
-import json
 import math
 import sys
 
@@ -57,7 +56,9 @@ def run(args) -> int:
     cond = co.conditions_from_args(args)
     report = _with_progress(lambda progress: check_measured(cs, rows, cond, args.samples, args.seed, progress), len(rows))
     if args.format == "json":
-        print(json.dumps(report.to_dict(), indent=2, allow_nan=False))
+        from ..services.result_export import result_json  # the workbench saves the same JSON
+
+        sys.stdout.write(result_json(report))
     elif args.format == "csv":
         _print_csv(report)
     else:

@@ -31,7 +31,6 @@ def register(subparsers) -> None:
 
 
 def run(args) -> int:
-    import json
     import sys
 
     from ..errors import ConditionsError
@@ -51,7 +50,9 @@ def run(args) -> int:
     with progress_bar(sys.stderr) as progress:
         result = rate_map(couple_set, ids=ids, conditions=conditions, progress=progress)
     if args.format == "json":
-        text = json.dumps(result.to_dict(), allow_nan=False) + "\n"
+        from ..services.result_export import result_json  # the workbench saves the same JSON
+
+        text = result_json(result, indent=None)
     else:
         text = map_csv(result)
     if args.out:

@@ -89,7 +89,6 @@ def register(subparsers) -> None:
 
 
 def run(args) -> int:
-    import json
     import sys
 
     from ..services.prediction import predict
@@ -101,7 +100,9 @@ def run(args) -> int:
         couple_set, args.oxidant, args.reductant, conditions, samples=args.samples, seed=args.seed
     )
     if args.format == "json":
-        sys.stdout.write(json.dumps(prediction.to_dict(), indent=2, allow_nan=False) + "\n")
+        from ..services.result_export import result_json  # the workbench saves the same JSON
+
+        sys.stdout.write(result_json(prediction))
     else:
         from .render_prediction import print_prediction
 

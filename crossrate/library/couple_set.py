@@ -1,10 +1,14 @@
 """CoupleSet: the resolved, layered set of couples the program works on, and its numpy view."""
 
+from __future__ import annotations
+
 import difflib
 from dataclasses import dataclass
 from functools import cached_property
+from typing import TYPE_CHECKING
 
-import numpy as np
+if TYPE_CHECKING:
+    import numpy as np
 
 from ..core.constants import ANGSTROM, KJ
 from ..core.potential_scales import ScaleRegistry
@@ -55,6 +59,8 @@ class CoupleArrays:
 
 
 def _opt(values):
+    import numpy as np  # here, not at import: loading a library (the workbench's start) needs no numpy
+
     return np.array([np.nan if v is None else float(v) for v in values], dtype=float)
 
 
@@ -128,6 +134,8 @@ class CoupleSet:
 
     def index_of(self, ids) -> np.ndarray:
         """Integer positions of ids in set order (UnknownCoupleError for the first unknown one)."""
+        import numpy as np
+
         if isinstance(ids, str):
             ids = [ids]
         try:
@@ -149,6 +157,8 @@ class CoupleSet:
     @cached_property
     def arrays(self) -> CoupleArrays:
         """Numpy columns over all couples (computed once per set)."""
+        import numpy as np
+
         cs = list(self._couples.values())
         roots = [self.E_on_root(c) for c in cs]
         ln10 = np.log(10.0)

@@ -78,6 +78,19 @@ def check_measured(couple_set, prediction, k, sd):
     return check_pair(prediction, k, sd, couples=couples)
 
 
+#: Monte Carlo draws per row of a series check in the workbench (the command line's default is 5000).
+SERIES_SAMPLES = 2000
+
+
+def check_series(couple_set, path: str, conditions):
+    """services.measured_check.check_measured over a measured-rates CSV (the format of `crossrate check`):
+    the CheckReport, or InputFileError naming file, line and field."""
+    from ..services.measured_check import check_measured
+    from ..services.measured_csv import read_measured_csv
+
+    return check_measured(couple_set, read_measured_csv(path), conditions, samples=SERIES_SAMPLES, seed=0)
+
+
 def file_sha256(couple_set, path: str) -> str:
     """sha256 of the file as it was when the set was loaded (what an edit is checked against); the file's
     current hash when the set does not know it."""

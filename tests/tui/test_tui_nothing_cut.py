@@ -18,13 +18,15 @@ from crossrate.tui.widgets.couple_rows import COLUMNS
 from crossrate.tui.widgets.energy_plot import energy_lines
 from crossrate.tui.widgets.heat_map import CHOOSE_HINT, CORNER, LEGEND
 from crossrate.tui.widgets.rate_curve_plot import curve_lines
+from crossrate.tui.widgets.series_view import PLOT_LEGEND, PLOT_TITLE, TABLE_HEAD, VERDICT_MARK
 
 SIZE = (80, 24)
 
 
 def _extra_vocabulary(screen) -> set[str]:
     """What custom-drawn widgets mean to show: the couples, the column heads, the legends, plots drawn wide."""
-    vocab = words(" ".join((*VIEW_HINTS.values(), LEGEND, CORNER, CHOOSE_HINT)))
+    vocab = words(" ".join((*VIEW_HINTS.values(), LEGEND, CORNER, CHOOSE_HINT, PLOT_TITLE, TABLE_HEAD,
+                            *PLOT_LEGEND, *(w for w, _mark in VERDICT_MARK.values()))))
     for col in COLUMNS:
         vocab |= words(f"{col.title} {col.unit}")
     vocab |= words(" ".join(screen.query_one("#table").units))
@@ -88,7 +90,10 @@ async def test_every_view_and_dialog_at_80x24():
         await pilot.press("tab", *"3.5e4")
         await settle(pilot)
         walk.look("check with a measured k")
-        await pilot.press("escape", "3")
+        await pilot.press("w")
+        await settle(pilot)
+        walk.look("save dialog")
+        await pilot.press("escape", "escape", "3")
         await settle(pilot)
         walk.look("rate curve with a measured k")
         await pilot.press("6")
@@ -109,6 +114,25 @@ async def test_every_view_and_dialog_at_80x24():
         walk.look("command palette")
         await pilot.press("escape")
         await settle(pilot)
+        assert not walk.problems, "\n".join(walk.problems)
+
+
+@run_async
+async def test_series_check_at_80x24(tmp_path):
+    csv = tmp_path / "measured.csv"
+    csv.write_text("oxidant,reductant,k_measured\nhl-osmium,hl-iron,3.0e6\nhl-ferrocene-mecn,hl-ferrocene-mecn,5e6\n"
+                   "hl-ruthenium,hl-cobalt,2.0e2\n", encoding="utf-8")
+    app = CrossrateApp(couple_set=CoupleSet(small_couples()))
+    async with app.run_test(size=SIZE) as pilot:
+        screen = await _ready(pilot)
+        walk = Walk(app, screen)
+        await pilot.press("5", "tab", "tab", "tab", *str(csv), "enter")
+        await settle(pilot)
+        assert screen.series_report is not None
+        walk.look("series check")
+        await pilot.press("down", "enter")
+        await settle(pilot)
+        walk.look("series check, a row set as the pair")
         assert not walk.problems, "\n".join(walk.problems)
 
 

@@ -7,6 +7,7 @@ from textual.containers import Horizontal, Vertical, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Footer, Input, Static
 
+from ...errors import CrossrateError
 from ..widgets.check_panel import CheckPanel
 from ..widgets.conditions_form import ConditionsForm
 from ..widgets.couple_detail import CoupleDetail
@@ -17,9 +18,12 @@ from ..widgets.heat_map import HeatMap
 from ..widgets.pair_bar import PairBar
 from ..widgets.prediction_panel import PredictionPanel
 from ..widgets.rate_curve_plot import RateCurvePlot
+from ..widgets.series_view import SeriesTable
 from ..widgets.view_tabs import VIEWS, ViewTabs
 from .workbench_editing import WorkbenchEditing
 from .workbench_logic import WorkbenchLogic
+from .workbench_results import WorkbenchResults
+from .workbench_series import WorkbenchSeries
 
 #: Pause between the first refresh and the start of the library loader, s (see on_mount).
 FIRST_PAINT_GRACE_S = 0.08
@@ -27,11 +31,11 @@ FIRST_PAINT_GRACE_S = 0.08
 NARROW_BELOW = 130
 
 
-class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
+class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, WorkbenchResults, WorkbenchSeries, Screen):
     """Main screen. The state and the calls to services live in WorkbenchLogic, library edits in
-    WorkbenchEditing."""
+    WorkbenchEditing, saving and copying results in WorkbenchResults."""
 
-    CSS_PATH = "workbench.tcss"
+    CSS_PATH = ["workbench.tcss", "../widgets/series_view.tcss"]
     BINDINGS = [
         *(Binding(key, f"view('{vid}')", title, show=False) for vid, key, title in VIEWS),
         Binding("o", "set_oxidant", "oxidant"),
@@ -46,6 +50,8 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         Binding("delete", "delete", "delete", show=False),
         Binding("ctrl+r", "reload", "reload", show=False),
         Binding("p", "problems", "library problems", show=False),
+        Binding("w", "save_result", "save", show=False),
+        Binding("c", "copy_result", "copy", show=False),
         Binding("question_mark,f1", "help", "help"),
         # esc, tab and shift+tab move the focus: as priority bindings they act before the next key is handed to
         # a field, so text typed right after them lands where the user now is (see widgets/field_input.py).
@@ -105,10 +111,20 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         p = self.service_predict(ox, red, cond, samples=20000)
         self.app.call_from_thread(self.interval_ready, key, p)
 
+    @work(thread=True, exclusive=True, group="series")
+    def run_series(self, path: str, cond) -> None:
+        from ..library_access import check_series
+
+        try:
+            report, problem = check_series(self.couple_set, path, cond), ""
+        except CrossrateError as exc:
+            report, problem = None, str(exc)
+        self.app.call_from_thread(self.series_ready, path, report, problem)
+
     @work(thread=True, exclusive=True, group="map")
     def run_map(self, ids, cond, note: str) -> None:
-        values, problem = self.service_map(ids, cond)
-        self.app.call_from_thread(self.map_ready, ids, values, problem or note)
+        result, problem = self.service_map(ids, cond)
+        self.app.call_from_thread(self.map_ready, ids, result, problem or note)
 
     # -- events -----------------------------------------------------------------------------------------
     @on(Input.Changed, "#search")
@@ -142,6 +158,18 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, Screen):
         self.measured = (event.k, event.log10_sd) if event.k is not None else None
         self.refresh_check()
         self.refresh_curves()
+
+    @on(CheckPanel.SeriesRequested)
+    def _series_requested(self, event: CheckPanel.SeriesRequested) -> None:
+        self.load_series(event.path)
+
+    @on(SeriesTable.Chosen)
+    def _series_row(self, event: SeriesTable.Chosen) -> None:
+        r = event.row
+        self.set_pair(r.oxidant, r.reductant)
+        where = f"line {r.line}" if r.line is not None else "the series"
+        self.status(f"pair from {where}: {r.oxidant} + {r.reductant} (measured {r.k_measured:.3g} M⁻¹ s⁻¹; "
+                    "that row's own T, I and medium are in the file)")
 
     @on(HeatMap.Chosen)
     def _cell_chosen(self, event: HeatMap.Chosen) -> None:

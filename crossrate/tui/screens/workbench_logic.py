@@ -38,7 +38,7 @@ VIEW_HINTS = {
     "predict": "↑↓ PgUp PgDn scroll  tab: into the conditions  esc: out of a field",
     "curve": "a measured k (entered in view 5) is drawn as x  u energy units",
     "energy": "λ, ΔG°' and the barrier read off the dotted guides  u energy units",
-    "check": "tab: into the measured k  esc: out of a field  PgUp PgDn scroll",
+    "check": "tab: a measured k, or a CSV of measured rates  esc: out of a field  PgUp PgDn scroll",
     "map": "arrows move  enter (or a second click) sets the pair  / filters the couples",
 }
 
@@ -71,16 +71,13 @@ class WorkbenchLogic:
 
     # -- library ----------------------------------------------------------------------------------------
     def library_loaded(self, cs, problem: str) -> None:
-        from ...core.solvents import solvent_table
-        from ...services.conditions import Conditions
-
-        if self.conditions is None:
-            self.conditions = Conditions()
-        self.query_one(ConditionsForm).set_media(sorted(solvent_table()))
+        """The set is read: the table first; what needs numpy and the services (the media list, the detail's
+        λ breakdown, the prediction) follows once the rows are on the screen (finish_loading)."""
         self.app.load_problem = problem
         if cs is None:
             self.query_one(CoupleDetail).update(f"! {problem}")
             self.status("the library could not be read: fix the file, then ctrl+r reloads (ctrl+q quits)")
+            self.call_after_refresh(self.finish_loading, None, problem)
             return
         self.couple_set = cs
         self.rows = build_rows(cs)
@@ -91,9 +88,20 @@ class WorkbenchLogic:
             self.reductant = self.reductant if self.reductant in cs else None
         shadowed = f", {len(cs.shadowed)} shadowed by a later layer" if cs.shadowed else ""
         self.status(f"{len(cs)} couples from {len(cs.files) or 'the given'} file(s){shadowed}")
+        self.call_after_refresh(self.finish_loading, cs, problem)
+
+    def finish_loading(self, cs, problem: str) -> None:
+        from ...core.solvents import solvent_table
+        from ...services.conditions import Conditions
+
+        if self.conditions is None:
+            self.conditions = Conditions()
+        self.query_one(ConditionsForm).set_media(sorted(solvent_table()))
+        if cs is None or cs is not self.couple_set:
+            return
         # Every pane that shows a couple shows what the files now hold: the table keeps its cursor (so it
         # announces no new highlight), hence the detail, the prediction and the map are redrawn here.
-        self.show_detail(table.current_id)
+        self.show_detail(self.query_one(CoupleTable).current_id)
         if not len(cs) and not problem:
             self.query_one(CoupleDetail).update(f"{cs.empty_reason()}; start a file with `crossrate library new "
                                                 "FILE` and open it with --library FILE, or run with --demo for "
@@ -164,6 +172,8 @@ class WorkbenchLogic:
 
     def _focus_view(self) -> None:
         target = VIEW_FOCUS.get(self.view)
+        if self.view == "check" and getattr(self, "series_report", None) is not None:
+            target = "#series-table"
         self.set_focus(self.query_one(target) if target else None)
 
     def action_scroll_result(self, pages: int) -> None:
@@ -333,7 +343,7 @@ class WorkbenchLogic:
         from ...services.rate_map import rate_map
 
         try:
-            return rate_map(self.couple_set, ids=ids, conditions=cond).log10_k_obs, ""
+            return rate_map(self.couple_set, ids=ids, conditions=cond), ""
         except CrossrateError as exc:
             return None, str(exc)
 
@@ -347,13 +357,15 @@ class WorkbenchLogic:
             return tui_wording(str(exc))
         return ""
 
-    def map_ready(self, ids, values, note: str) -> None:
+    def map_ready(self, ids, result, note: str) -> None:
+        """result: the services.rate_map.RateMap (kept for saving it), None when it failed (note says why)."""
         heat = self.query_one(HeatMap)
         heat.explain = self.explain_pair
-        if values is None:
+        self.map_result = result
+        if result is None:
             heat.message(f"! {note}")
         else:
-            heat.show(ids, values, note)
+            heat.show(ids, result.log10_k_obs, note)
 
     # -- other screens ----------------------------------------------------------------------------------
     def action_problems(self) -> None:

@@ -5,13 +5,14 @@ import math
 from rich.table import Table
 from rich.text import Text
 from textual.app import ComposeResult
-from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.containers import Container, Horizontal, Vertical, VerticalScroll
 from textual.message import Message
 from textual.widgets import Input, Label, Static
 
 from ..units import rate_text
 from .conditions_form import DEBOUNCE_S
 from .field_input import FieldInput
+from .series_view import SeriesPlot, SeriesTable
 
 #: Usual reasons a measured rate departs from the cross relation (shown when the service gives none).
 USUAL_CAUSES = (
@@ -26,6 +27,13 @@ USUAL_CAUSES = (
 class CheckPanel(Vertical):
     """Inputs for k_measured (M^-1 s^-1) and its log10 SD, and the verdict."""
 
+    class SeriesRequested(Message):
+        """The user asked to load a measured-rates CSV (path as typed; '' clears the series)."""
+
+        def __init__(self, path: str):
+            self.path = path
+            super().__init__()
+
     class Entered(Message):
         def __init__(self, k: float | None, log10_sd: float | None):
             self.k, self.log10_sd = k, log10_sd
@@ -37,8 +45,15 @@ class CheckPanel(Vertical):
             yield FieldInput("", placeholder="e.g. 3.5e4", id="check-k", compact=True)
             yield Label("  log10 SD ")
             yield FieldInput("", placeholder="optional", id="check-sd", compact=True)
+        with Horizontal(id="check-series-inputs"):
+            yield Label("measured series (CSV) ")
+            yield FieldInput("", placeholder="a file as for crossrate check; enter loads it", id="check-csv",
+                             compact=True)
         with VerticalScroll(id="check-scroll"):
             yield Static("", id="check-result", markup=False)
+        with Container(id="series"):
+            yield SeriesTable(id="series-table")
+            yield SeriesPlot(id="series-plot")
 
     _timer = None
 
@@ -49,13 +64,30 @@ class CheckPanel(Vertical):
 
     def on_input_changed(self, event: Input.Changed) -> None:
         event.stop()
+        if event.input.id == "check-csv":
+            return
         if self._timer is not None:
             self._timer.stop()
         self._timer = self.set_timer(DEBOUNCE_S, self.flush)
 
     def on_input_submitted(self, event: Input.Submitted) -> None:
         event.stop()
+        if event.input.id == "check-csv":
+            self.post_message(self.SeriesRequested(event.value.strip()))
+            return
         self.flush()
+
+    def show_series(self, report) -> None:
+        """Show every row of a series check (services.measured_check.CheckReport); None goes back to the
+        single measured k."""
+        self.set_class(report is not None, "-series")
+        rows = report.rows if report is not None else ()
+        self.query_one(SeriesTable).show(rows)
+        self.query_one(SeriesPlot).show(rows, 0)
+
+    def on_series_table_moved(self) -> None:
+        table = self.query_one(SeriesTable)
+        self.query_one(SeriesPlot).show(table.rows, table.cursor)
 
     def flush(self) -> None:
         """Read both fields now and announce the measurement (or mark the bad field)."""
