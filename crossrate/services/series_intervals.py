@@ -15,14 +15,16 @@ def _least_squares():
     return least_squares
 
 
-def best_fit(prob, starts, tol=1e-10):
-    """The least-squares solution (scipy OptimizeResult) with the lowest cost over the starting points."""
+def best_fit(prob, starts, tol=1e-10, max_nfev=2000):
+    """The least-squares solution (scipy OptimizeResult) with the lowest cost over the starting points;
+    max_nfev caps the model evaluations of each start (a flat, badly determined direction can otherwise make
+    the solver crawl for thousands of steps with no gain that matters)."""
     ls = _least_squares()
     lo, hi = prob.bounds()
     best = None
     for th0 in starts:
         th0 = np.clip(np.asarray(th0, dtype=float), lo + 1e-9, hi - 1e-9)
-        r = ls(prob.residuals, th0, bounds=(lo, hi), x_scale="jac", xtol=tol, ftol=tol, gtol=tol, max_nfev=2000)
+        r = ls(prob.residuals, th0, bounds=(lo, hi), x_scale="jac", xtol=tol, ftol=tol, gtol=tol, max_nfev=max_nfev)
         if best is None or r.cost < best.cost:
             best = r
     return best
