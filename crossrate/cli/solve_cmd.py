@@ -65,7 +65,7 @@ def run(args) -> int:
         rows = read_partner_csv(args.from_csv)
         cs = co.load_set(args)
         result = solve_several(cs, args.unknown, rows, kind, co.conditions_from_args(args), args.role)
-        _emit(args, result, _several_lines)
+        _emit(args, result, lambda r: _several_lines(r, cs))
         return 0
     if not args.partner or args.k_measured is None:
         raise ConditionsError("give the partner and the measured rate: --partner ID --k-measured K (or --from-csv FILE)")
@@ -130,11 +130,15 @@ def _potential_lines(r) -> list[str]:
     return out
 
 
-def _several_lines(r) -> list[str]:
+def _several_lines(r, cs=None) -> list[str]:
+    """The estimate, then one line per partner, its id marked '!' invented or '?' unverified (from cs)."""
+    from ..library.provenance import legend_lines, marked_id
+
+    kinds = [cs[p.partner].provenance if cs is not None and p.partner in cs else "" for p in r.partners]
     out = [r.explanation]
-    for p in r.partners:
+    for p, kind in zip(r.partners, kinds, strict=True):
         val = "diffusion-limited" if p.value is None else f"{p.value:.3f} +- {p.sd:.3f}"
         z = "" if p.z is None else f", z = {p.z:+.1f}"
         flag = "" if p.agrees else "  DISAGREES"
-        out.append(f"  line {p.line}: {p.partner} ({p.role}): {val}{z}{flag}")
-    return out
+        out.append(f"  line {p.line}: {marked_id(p.partner, kind)} ({p.role}): {val}{z}{flag}")
+    return out + legend_lines([k for k in kinds if k], "partners")

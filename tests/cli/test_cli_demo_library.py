@@ -77,3 +77,14 @@ def test_predict_table_names_each_couples_provenance(run_cli):
     flat = " ".join(out.split())
     assert "oxidant (couple 1): hl-med2 (! invented) reductant (couple 2): fe-aq (? unverified)" in flat
     assert "fe-aq: values not verified against the primary source" in flat
+
+
+def test_solve_partner_list_marks_invented_partners(run_cli, monkeypatch):
+    from pathlib import Path
+
+    monkeypatch.chdir(Path(__file__).resolve().parents[2])
+    rc, out, err = run_cli("solve", "k-self", "hl-med1", "--from-csv", "libraries/examples/partners_demo.csv",
+                           "--demo", library=False)
+    assert rc == 0, err
+    assert "line 5: hl-ru-amine! (oxidant)" in out and "line 9: hl-phenothiazine! (reductant)" in out
+    assert "! invented: made-up values (demo, teaching)" in " ".join(out.split())
