@@ -201,14 +201,28 @@ def solve_k_self(
     for name, h, spread in nudges:
         vals = []
         for sign in (1.0, -1.0):
-            if name == "k":
-                t, _ = activation_target(s, ln_meas + sign * h)
-                vals.append(_k_self_roots(s, t)[0])
-            else:
-                key = {"Eu": "E_unknown", "Ep": "E_partner", "lp": "ln_k_partner"}[name]
-                base = {"Eu": s.E_unknown, "Ep": s.E_partner, "lp": s.ln_k_partner}[name]
-                vals.append(_k_self_roots(s, target, **{key: base + sign * h})[0])
-        var += ((vals[0] - vals[1]) / (2.0 * h) * spread) ** 2
+            try:
+                if name == "k":
+                    t, _ = activation_target(s, ln_meas + sign * h)
+                    vals.append(_k_self_roots(s, t)[0])
+                else:
+                    key = {"Eu": "E_unknown", "Ep": "E_partner", "lp": "ln_k_partner"}[name]
+                    base = {"Eu": s.E_unknown, "Ep": s.E_partner, "lp": s.ln_k_partner}[name]
+                    vals.append(_k_self_roots(s, target, **{key: base + sign * h})[0])
+            except ScienceError:
+                # At the activationless top a nudge can lift the target past the largest rate the relation
+                # allows; the other side's one-sided difference then carries the slope.
+                vals.append(None)
+        if vals[0] is not None and vals[1] is not None:
+            slope = (vals[0] - vals[1]) / (2.0 * h)
+        elif vals[0] is not None or vals[1] is not None:
+            slope = ((vals[0] - y) if vals[0] is not None else (y - vals[1])) / h
+        else:
+            raise ScienceError(
+                f"the measured rate sits at the largest rate the cross relation allows for {s.unknown.id} with "
+                f"{s.partner.id}: no spread of k_self can be estimated there"
+            )
+        var += (slope * spread) ** 2
     sd_y = math.sqrt(var) / LN10
     ly = y / LN10
     text = (

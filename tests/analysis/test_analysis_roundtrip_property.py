@@ -4,7 +4,7 @@ forward inputs (k_self to 1e-6 in log10, E to 1e-6 V) on whichever branch the fo
 import math
 
 import pytest
-from hypothesis import HealthCheck, assume, given, settings
+from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 
 from crossrate.errors import ScienceError
@@ -30,6 +30,9 @@ def _couple(cid, z, E, log_k, r):
     r1=st.floats(3.0, 8.0), r2=st.floats(3.0, 8.0),
     I=st.floats(0.0, 1.0),
 )
+# A pair at the activationless top: the k_self spread's nudge lifts the target past the largest rate allowed.
+@example(z1=(-2, -3), z2=(2, 1), E1=0.0, dE=1.0, lk1=2.25, lk2=8.25, r1=3.0, r2=4.0, I=1.0)
+@example(z1=(-2, -3), z2=(2, 1), E1=0.0, dE=1.0, lk1=2.25, lk2=8.25, r1=3.0, r2=4.0, I=0.5)
 def test_solvers_invert_the_forward_prediction(z1, z2, E1, dE, lk1, lk2, r1, r2, I):
     ox = _couple("ox", z1, E1, lk1, r1)
     red = _couple("red", z2, E1 - dE, lk2, r2)  # downhill: E_ox >= E_red
