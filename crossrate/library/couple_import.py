@@ -79,6 +79,10 @@ def parse_tags_cell(text: str) -> list[str]:
 def _read_text(path: str) -> str:
     """The CSV's text (UTF-8, a spreadsheet's byte-order mark allowed); LibraryError naming file, line and
     column for bytes that are not UTF-8."""
+    if os.path.exists(path) and not os.path.isdir(path) and not os.path.isfile(path):
+        # a FIFO would wait for a writer forever, a device might never end
+        raise LibraryError([Problem(path, None, None, None, "is a pipe or a device, not a regular file; expected a "
+                                    "CSV file of couples")])
     try:
         with open(path, "rb") as fh:
             data = fh.read()

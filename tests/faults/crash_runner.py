@@ -20,7 +20,7 @@ from pathlib import Path
 
 from fault_corpus import VALID_LIBRARY
 
-KINDS = ("add", "update", "remove", "rename", "workbench_save", "map_out")
+KINDS = ("add", "update", "remove", "rename", "import", "workbench_save", "map_out")
 LEFTOVER = re.compile(r"^\..*\.[0-9a-f]{12}\.tmp$")
 
 
@@ -83,6 +83,12 @@ class Writer:
             new = f"hl-c-{n}"
             argv = ["library", "rename", lib, old, new]
             return (lambda: _quiet_main(argv)), (lambda t: f"[couple.{new}]" in t)
+        if self.kind == "import":
+            csv_path = self.folder / f"import-{n}.csv"
+            csv_path.write_text("id,name,charge_ox,charge_red,E,radius,ionic_strength,source\n" + "".join(
+                f"imp-{n}-{j},imported {n} {j},3,2,0.2,4.5,0.1,invented\n" for j in range(3)), encoding="utf-8")
+            argv = ["library", "import", str(csv_path), "--into", lib]
+            return (lambda: _quiet_main(argv)), (lambda text: f"[couple.imp-{n}-0]" in text)
         if self.kind in ("update", "workbench_save"):
             k = float(10 + n)
             return (lambda: self._update(k)), (lambda text: f"k_self = {k:g}" in text or f"k_self = {k!r}" in text)

@@ -10,9 +10,11 @@ from crash_runner import KINDS, crash_rounds
 def imported_before_fork():
     # the children are forked: everything they run is imported here, so their life is the write itself
     import crossrate.cli.library_cmd  # noqa: F401
+    import crossrate.cli.library_import_cmd  # noqa: F401
     import crossrate.cli.main  # noqa: F401
     import crossrate.cli.map_cmd  # noqa: F401
     import crossrate.library.couple_edits  # noqa: F401
+    import crossrate.library.couple_import  # noqa: F401
     import crossrate.tui.library_access  # noqa: F401
 
 

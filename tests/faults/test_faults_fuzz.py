@@ -188,3 +188,32 @@ def test_header_only_candidate_table_is_one_line(tmp_path):
                    str(lib)])
     assert rc == 2 and caught == []  # numpy's "input contained no data" stays inside
     assert err.getvalue().count("\n") == 1 and "a header but no candidates" in err.getvalue()
+
+
+def test_pipes_and_devices_are_refused_at_once(tmp_path):
+    # A FIFO nobody writes to would block a plain open() forever: every CSV reader refuses it at once.
+    import os
+    import signal
+
+    from crossrate.errors import CrossrateError
+    from crossrate.library.candidate_table import read_candidate_table
+    from crossrate.library.couple_import import read_couples_csv
+    from crossrate.services.measured_csv import read_measured_csv, read_partner_csv, read_series_csv
+
+    fifo = tmp_path / "pipe.csv"
+    os.mkfifo(fifo)
+    readers = (read_measured_csv, read_partner_csv, read_series_csv, read_couples_csv, read_candidate_table)
+
+    def hung(*_):
+        raise TimeoutError("a reader waited on the FIFO")
+
+    old = signal.signal(signal.SIGALRM, hung)
+    signal.alarm(10)
+    try:
+        for reader in readers:
+            for path in (fifo, "/dev/zero"):
+                with pytest.raises(CrossrateError, match=r"(pipe|device|not a regular file)"):
+                    reader(path)
+    finally:
+        signal.alarm(0)
+        signal.signal(signal.SIGALRM, old)
