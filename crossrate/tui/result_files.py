@@ -1,7 +1,7 @@
 """Writing a result file from the workbench: a new file is created exclusively (an existing one is never
-replaced without the user's yes), a confirmed replacement is written beside it and renamed over it."""
+replaced without the user's yes), a confirmed replacement is renamed over it; both go through
+library.output_writer (temporary file in the same folder, the umask's permissions)."""
 
-import os
 from pathlib import Path
 
 from ..errors import CrossrateError
@@ -14,19 +14,11 @@ def write_result_file(path: str, text: str, replace: bool = False) -> str:
     if not p.parent.is_dir():
         raise CrossrateError(f"{p}: folder {p.parent} does not exist; expected an existing folder (nothing was "
                              "written)")
+    from ..library.output_writer import write_output
+
     try:
-        if not replace:
-            with open(p, "x", encoding="utf-8", newline="\n") as f:
-                f.write(text)
-            return str(p)
-        tmp = p.with_name(f".{p.name}.{os.getpid()}.tmp")
-        try:
-            with open(tmp, "x", encoding="utf-8", newline="\n") as f:
-                f.write(text)
-            os.replace(tmp, p)
-        finally:
-            if tmp.exists():
-                tmp.unlink()
+        # through a temporary file: a killed save leaves no half file, and the next save removes its temporary
+        write_output(p, lambda fh: fh.write(text.encode("utf-8")), replace=replace)
     except FileExistsError:
         raise
     except OSError as exc:

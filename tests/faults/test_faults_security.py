@@ -112,3 +112,27 @@ def test_library_edit_through_a_link_edits_the_shared_file_and_keeps_its_mode(tm
     rc, _, err = _run("library", "remove", str(link), "new-one")
     assert rc == 0 and stat.S_IMODE(os.stat(real).st_mode) == mode
     assert sorted(p.name for p in tmp_path.iterdir()) == ["mine.toml", "shared"]
+
+
+def test_workbench_result_files_are_written_safely(tmp_path):
+    # The workbench's "save the result" goes through the same output writer as map --out: an existing file
+    # is never replaced without replace=True, a link is replaced (never its target), the umask applies.
+    from crossrate.tui.result_files import write_result_file
+
+    target = tmp_path / "prediction.md"
+    old = os.umask(0o027)
+    try:
+        assert write_result_file(str(target), "one\n") == str(target)
+    finally:
+        os.umask(old)
+    assert stat.S_IMODE(os.stat(target).st_mode) == 0o640
+    with pytest.raises(FileExistsError):
+        write_result_file(str(target), "two\n")
+    assert target.read_text() == "one\n"
+    victim = tmp_path / "victim.txt"
+    victim.write_text("precious\n")
+    link = tmp_path / "map.json"
+    link.symlink_to(victim)
+    write_result_file(str(link), "{}\n", replace=True)
+    assert victim.read_text() == "precious\n" and link.read_text() == "{}\n"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["map.json", "prediction.md", "victim.txt"]
