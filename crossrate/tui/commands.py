@@ -8,6 +8,8 @@ ACTIONS = (
     ("Show energy curves", "reactant and product free-energy parabolas", "view('energy')", "4"),
     ("Show measured check", "compare a measured k with the prediction", "view('check')", "5"),
     ("Show rate map", "heat map of log10 k_obs for the couples in view", "view('map')", "6"),
+    ("Show electrode view", "k0 of the highlighted couple, k(eta) and Delta Ep against scan rate", "view('electrode')",
+     "7"),
     ("Toggle couple detail", "enlarge the detail panel (enter; esc gives it back)", "toggle_detail", "enter"),
     ("Search couples", "filter the table as you type", "search", "/"),
     ("Set oxidant", "the highlighted couple takes the electron (couple 1)", "set_oxidant", "o"),

@@ -12,6 +12,7 @@ from ..widgets.check_panel import CheckPanel
 from ..widgets.conditions_form import ConditionsForm
 from ..widgets.couple_detail import CoupleDetail
 from ..widgets.couple_table import CoupleTable
+from ..widgets.electrode_panel import ElectrodePanel
 from ..widgets.energy_plot import EnergyPlot
 from ..widgets.field_input import FieldInput
 from ..widgets.heat_map import HeatMap
@@ -21,6 +22,7 @@ from ..widgets.rate_curve_plot import RateCurvePlot
 from ..widgets.series_view import SeriesTable
 from ..widgets.view_tabs import VIEWS, ViewTabs
 from .workbench_editing import WorkbenchEditing
+from .workbench_electrode import WorkbenchElectrode
 from .workbench_logic import WorkbenchLogic
 from .workbench_results import WorkbenchResults
 from .workbench_series import WorkbenchSeries
@@ -31,7 +33,9 @@ FIRST_PAINT_GRACE_S = 0.08
 NARROW_BELOW = 130
 
 
-class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, WorkbenchResults, WorkbenchSeries, Screen):
+class WorkbenchScreen(
+    WorkbenchLogic, WorkbenchEditing, WorkbenchResults, WorkbenchSeries, WorkbenchElectrode, Screen
+):
     """Main screen. The state and the calls to services live in WorkbenchLogic, library edits in
     WorkbenchEditing, saving and copying results in WorkbenchResults."""
 
@@ -82,6 +86,7 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, WorkbenchResults, Workbe
             yield CheckPanel(id="check")
             with Vertical(id="map"):
                 yield HeatMap(id="heat")
+            yield ElectrodePanel(id="electrode")
         yield Static("", id="status", markup=False)
         yield Footer()
 
@@ -138,6 +143,8 @@ class WorkbenchScreen(WorkbenchLogic, WorkbenchEditing, WorkbenchResults, Workbe
     @on(CoupleTable.Highlighted)
     def _highlighted(self, event: CoupleTable.Highlighted) -> None:
         self.show_detail(event.couple_id)
+        if self.view == "electrode":
+            self.refresh_electrode()
 
     @on(ConditionsForm.Changed)
     def _conditions(self, event: ConditionsForm.Changed) -> None:

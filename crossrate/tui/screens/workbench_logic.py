@@ -40,6 +40,7 @@ VIEW_HINTS = {
     "energy": "λ, ΔG°' and the barrier read off the dotted guides  u energy units",
     "check": "tab: a measured k, or a CSV of measured rates  esc: out of a field  PgUp PgDn scroll",
     "map": "arrows move  enter (or a second click) sets the pair  / filters the couples",
+    "electrode": "the couple highlighted in view 1 (else the oxidant): k0 from k_self, k(η), ΔEp(v)",
 }
 
 
@@ -169,6 +170,8 @@ class WorkbenchLogic:
         self.status(VIEW_HINTS.get(vid, self._couples_status))
         if vid == "map":
             self.refresh_map()
+        if vid == "electrode":
+            self.refresh_electrode()
 
     def _focus_view(self) -> None:
         target = VIEW_FOCUS.get(self.view)

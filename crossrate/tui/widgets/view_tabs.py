@@ -11,17 +11,23 @@ VIEWS = (
     ("energy", "4", "energy"),
     ("check", "5", "check"),
     ("map", "6", "map"),
+    ("electrode", "7", "k0"),
 )
 
 
 class ViewTabs(Static):
     def show(self, current: str, unit: str) -> None:
         t = Text(no_wrap=True, overflow="crop")
+        # Narrow terminals: one space between the views instead of two, so the unit still fits at 80 columns.
+        full = sum(len(key) + len(title) + 3 for _vid, key, title in VIEWS) + len(unit) + 2
+        pad = " " if full <= (self.size.width or 80) - 2 else ""
         for vid, key, title in VIEWS:
+            if not pad:
+                t.append(" ")
             if vid == current:
                 t.append(f"[{key} {title}]", style="bold reverse")
             else:
-                t.append(f" {key} {title} ", style="dim")
+                t.append(f"{pad}{key} {title}{pad}", style="dim")
         # The energy unit stays on this line even at 80 columns (nothing else says which one is in use).
         t.append(f"  {unit}", style="dim")
         self.update(t)
