@@ -32,6 +32,7 @@ SHOTS = (
     ("rate_curve_100x30.svg", (100, 30), ["3"]),
     ("energy_curves_100x30.svg", (100, 30), ["4"]),
     ("rate_map_80x24.svg", (80, 24), ["6"]),
+    ("electrode_100x30.svg", (100, 30), ["7"]),
     ("help_100x34.svg", (100, 34), ["question_mark"]),
     ("editor_100x34.svg", (100, 34), ["1", "e"]),
 )
