@@ -47,6 +47,20 @@ class Problem:
         return printable(": ".join(parts), keep_newlines=False)
 
 
+@dataclass(frozen=True)
+class ColumnProblem(Problem):
+    """A problem with a column too (TOML syntax, encoding, a CSV cell): shown as `path:line:column: ...`."""
+
+    column: int | None = None
+
+    def __str__(self) -> str:
+        text = super().__str__()
+        if self.line and self.column:
+            head = f"{self.path}:{self.line}"
+            return f"{head}:{self.column}{text[len(head):]}"
+        return text
+
+
 class LibraryError(CrossrateError):
     """A library file is invalid; .problems lists every problem found (all at once)."""
 

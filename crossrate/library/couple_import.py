@@ -23,7 +23,7 @@ from pathlib import Path
 
 from ..core.potential_scales import PotentialScale, builtin_scales
 from ..core.solvents import solvent_table
-from ..errors import LibraryError, Problem
+from ..errors import ColumnProblem, LibraryError, Problem
 from .couple import Couple
 from .couple_edits import put_couples
 from .schema import FIELDS_BY_NAME, closest, parse_field_text
@@ -38,18 +38,8 @@ WHERE_COLUMNS = ("layer", "path", "line")
 _VERBATIM_KINDS = ("text",)
 
 
-@dataclass(frozen=True)
-class CellProblem(Problem):
-    """A problem in one cell: shown as `path:line:column: ...` (column: 1-based position in the row)."""
-
-    column: int | None = None
-
-    def __str__(self) -> str:
-        text = super().__str__()
-        if self.line and self.column:
-            head = f"{self.path}:{self.line}"
-            return f"{head}:{self.column}{text[len(head):]}"
-        return text
+#: A problem in one CSV cell (column: 1-based position in the row).
+CellProblem = ColumnProblem
 
 
 @dataclass(frozen=True)

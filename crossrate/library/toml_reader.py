@@ -15,7 +15,7 @@ from dataclasses import dataclass
 
 from ..core.potential_scales import PotentialScale, builtin_scales
 from ..core.solvents import solvent_table
-from ..errors import LibraryError, Problem
+from ..errors import ColumnProblem, LibraryError, Problem
 from .couple import Couple
 from .library_header import check_top_level, read_library_header
 from .line_index import LineIndex
@@ -26,18 +26,8 @@ from .validation import ValidationContext, describe, validate_couple
 _AT = re.compile(r"\(at line (\d+), column (\d+)\)")
 
 
-@dataclass(frozen=True)
-class TomlSyntaxProblem(Problem):
-    """A problem with a column too: shown as `path:line:col: ...` (TOML syntax, encoding)."""
-
-    column: int | None = None
-
-    def __str__(self) -> str:
-        text = super().__str__()
-        if self.line and self.column:
-            head = f"{self.path}:{self.line}"
-            return f"{head}:{self.column}{text[len(head):]}"
-        return text
+#: A TOML syntax or encoding problem, with its column.
+TomlSyntaxProblem = ColumnProblem
 
 
 @dataclass(frozen=True, eq=False)
