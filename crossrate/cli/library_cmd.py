@@ -133,7 +133,8 @@ def run_validate(args) -> int:
             for prob in exc.problems:
                 print(prob, file=sys.stderr)
             continue
-        print(f"{f}: valid ({len(lf.couples)} couples; checked on top of {where})")
+        n = len(lf.couples)
+        print(f"{f}: valid ({n} couple{'' if n == 1 else 's'}; checked on top of {where})")
     if n_bad:
         print(f"crossrate: {n_problems} problem{'s' if n_problems != 1 else ''} in {n_bad} "
               f"file{'s' if n_bad != 1 else ''}", file=sys.stderr)

@@ -245,7 +245,7 @@ def test_add_to_a_new_personal_file_using_a_bundled_scale(run, tmp_path):
                        "--source", "invented for the tests")
     assert (rc, err) == (0, "") and "added couple my-fc" in out
     rc, out, err = run("library", "validate", str(p))
-    assert rc == 0 and "valid (1 couples;" in out
+    assert rc == 0 and "valid (1 couple;" in out
 
 
 GROUP_WITH_SCALE = """\
@@ -274,3 +274,4 @@ def test_validate_judges_a_file_in_the_layered_context(run, write_lib, monkeypat
     rc, out, err = run("library", "validate", str(user))
     assert (rc, err) == (0, "")
     assert out == f"{user}: valid (3 couples; checked on top of the bundled and group layers)\n"
+
