@@ -3,7 +3,9 @@ nothing is written without confirming, and unsaved edits are not lost on quit.""
 
 from pathlib import Path
 
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async
+from tui_fixtures import set_field as _set_field
 from tui_screen_text import screen_text
 
 from crossrate.tui.app import CrossrateApp
@@ -55,22 +57,6 @@ def _library(tmp_path: Path) -> Path:
 
 def _app(path: Path) -> CrossrateApp:
     return CrossrateApp(library_paths=[str(path)], layers={"bundled": False, "group": False, "personal": False})
-
-
-async def _ready(pilot) -> WorkbenchScreen:
-    for _ in range(100):
-        await pilot.pause(0.02)
-        s = pilot.app.screen
-        if isinstance(s, WorkbenchScreen) and s.couple_set is not None:
-            return s
-    raise AssertionError("library never loaded")
-
-
-async def _set_field(pilot, field: str, text: str) -> None:
-    box = pilot.app.screen.query_one(f"#f-{field}")
-    box.focus()
-    box.value = ""
-    await pilot.press(*text)
 
 
 @run_async

@@ -5,20 +5,12 @@ from test_tui_editing import _app as _file_app
 from test_tui_editing import _library
 from test_tui_editing import _ready as _file_ready
 from tui_fixtures import burst, run_async, settle, small_couples
+from tui_fixtures import ready_workbench as _ready
 from tui_screen_text import screen_text
 
 from crossrate.library.couple_set import CoupleSet
 from crossrate.tui.app import CrossrateApp
 from crossrate.tui.screens.editor_screen import EditorScreen
-from crossrate.tui.screens.workbench import WorkbenchScreen
-
-
-async def _ready(pilot) -> WorkbenchScreen:
-    for _ in range(100):
-        await pilot.pause(0.02)
-        if isinstance(pilot.app.screen, WorkbenchScreen) and pilot.app.screen.couple_set is not None:
-            return pilot.app.screen
-    raise AssertionError("the library never loaded")
 
 
 @run_async

@@ -3,7 +3,9 @@ create a --library file that does not exist yet. Driven by real keys; the files 
 
 from pathlib import Path
 
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async
+from tui_fixtures import set_field as _type
 
 from crossrate.library.toml_reader import read_library_file
 from crossrate.tui.app import CrossrateApp
@@ -21,22 +23,6 @@ async def _wait_for(pilot, kind):
         if isinstance(pilot.app.screen, kind):
             return pilot.app.screen
     raise AssertionError(f"{kind.__name__} never shown (now {type(pilot.app.screen).__name__})")
-
-
-async def _ready(pilot) -> WorkbenchScreen:
-    for _ in range(100):
-        await pilot.pause(0.02)
-        s = pilot.app.screen
-        if isinstance(s, WorkbenchScreen) and s.couple_set is not None:
-            return s
-    raise AssertionError("library never loaded")
-
-
-async def _type(pilot, field: str, text: str) -> None:
-    box = pilot.app.screen.query_one(f"#f-{field}")
-    box.focus()
-    box.value = ""
-    await pilot.press(*text)
 
 
 @run_async

@@ -6,13 +6,13 @@ the cut start of a word the app means to show."""
 from cut_words import cut_words, screen_vocabulary, words
 from test_tui_editing import _app as _file_app
 from test_tui_editing import _library
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async, settle, small_couples
 from tui_screen_text import screen_text
 
 from crossrate.library.couple_set import CoupleSet
 from crossrate.services.curves import driving_force_curve, energy_surfaces
 from crossrate.tui.app import CrossrateApp
-from crossrate.tui.screens.workbench import WorkbenchScreen
 from crossrate.tui.screens.workbench_logic import VIEW_HINTS
 from crossrate.tui.widgets.couple_rows import COLUMNS
 from crossrate.tui.widgets.energy_plot import energy_lines
@@ -51,14 +51,6 @@ class Walk:
         lines = text.splitlines()
         assert len(lines) <= SIZE[1] and all(len(ln) <= SIZE[0] for ln in lines)
         self.problems += [f"{where}: {w}" for w in cut_words(text, vocab)]
-
-
-async def _ready(pilot) -> WorkbenchScreen:
-    for _ in range(100):
-        await pilot.pause(0.02)
-        if isinstance(pilot.app.screen, WorkbenchScreen) and pilot.app.screen.couple_set is not None:
-            return pilot.app.screen
-    raise AssertionError("the library never loaded")
 
 
 def test_detector_finds_a_cut_word():

@@ -8,20 +8,12 @@ from contextlib import redirect_stdout
 
 from test_tui_editing import _app as _file_app
 from test_tui_editing import _library
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async, settle
 
 from crossrate.services.result_export import result_json
 from crossrate.tui.screens.confirm_screen import ConfirmScreen
 from crossrate.tui.screens.save_screen import SaveScreen
-from crossrate.tui.screens.workbench import WorkbenchScreen
-
-
-async def _ready(pilot) -> WorkbenchScreen:
-    for _ in range(100):
-        await pilot.pause(0.02)
-        if isinstance(pilot.app.screen, WorkbenchScreen) and pilot.app.screen.couple_set is not None:
-            return pilot.app.screen
-    raise AssertionError("the library never loaded")
 
 
 async def _save_as(pilot, path) -> None:

@@ -7,6 +7,7 @@ from contextlib import redirect_stdout
 
 from test_tui_editing import _app as _file_app
 from test_tui_editing import _library
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async, settle
 from tui_screen_text import screen_text
 
@@ -14,7 +15,6 @@ from crossrate.services.measured_check import check_measured
 from crossrate.services.measured_csv import read_measured_csv
 from crossrate.tui.library_access import SERIES_SAMPLES
 from crossrate.tui.screens.save_screen import SaveScreen
-from crossrate.tui.screens.workbench import WorkbenchScreen
 from crossrate.tui.widgets.series_view import SeriesTable
 
 CSV = """\
@@ -23,14 +23,6 @@ oxidant,reductant,k_measured,k_measured_log10_sd,label
 hl-osmium,hl-iron,3.0e6,0.2,fast run
 hl-iron,hl-osmium,1.0e-3,,slow run
 """
-
-
-async def _ready(pilot) -> WorkbenchScreen:
-    for _ in range(100):
-        await pilot.pause(0.02)
-        if isinstance(pilot.app.screen, WorkbenchScreen) and pilot.app.screen.couple_set is not None:
-            return pilot.app.screen
-    raise AssertionError("the library never loaded")
 
 
 async def _load(pilot, path) -> None:

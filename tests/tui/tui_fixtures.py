@@ -93,3 +93,24 @@ def burst(app, keys) -> None:
         event = events.Key(key, char)
         event.set_sender(app)
         app._driver.send_message(event)
+
+
+async def ready_workbench(pilot):
+    """The workbench screen once its library has loaded (the load runs in a worker after the first paint)."""
+    from crossrate.tui.screens.workbench import WorkbenchScreen
+
+    for _ in range(100):
+        await pilot.pause(0.02)
+        s = pilot.app.screen
+        if isinstance(s, WorkbenchScreen) and s.couple_set is not None:
+            return s
+    raise AssertionError("library never loaded")
+
+
+async def set_field(pilot, field: str, text: str) -> None:
+    """Focus the editor's field `field`, empty it and type `text` key by key."""
+    box = pilot.app.screen.query_one(f"#f-{field}")
+    box.focus()
+    box.value = ""
+    await pilot.press(*text)
+
