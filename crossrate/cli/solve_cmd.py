@@ -93,10 +93,14 @@ def _cond(c) -> str:
             f"diffusion cap {'on' if c.diffusion else 'off'}")
 
 
+def _kd_sd(r) -> str:
+    return f" (SD {r.log10_k_diff_sd:g} in log10)" if r.log10_k_diff_sd else ""
+
+
 def _k_self_lines(r) -> list[str]:
     out = [f"{r.unknown} with {r.partner} ({r.role_reason})", f"conditions: {_cond(r.conditions)}",
            f"k measured = {r.k_measured:.4g} M^-1 s^-1 (SD {r.k_measured_log10_sd:g} in log10"
-           f"{', default' if r.measured_sd_defaulted else ''}); k_D = 10^{r.log10_k_diff:.2f}; "
+           f"{', default' if r.measured_sd_defaulted else ''}); k_D = 10^{r.log10_k_diff:.2f}{_kd_sd(r)}; "
            f"Delta G deg = {r.dG0_kJ_per_mol:.1f} kJ/mol"]
     if r.log10_k_self is None:
         out.append(f"k_self: not determinable (diffusion-limited); k_self >= 10^{r.log10_k_self_lower_bound:.2f} "
@@ -120,7 +124,7 @@ def _k_self_lines(r) -> list[str]:
 
 def _potential_lines(r) -> list[str]:
     out = [f"{r.unknown} with {r.partner} ({r.role_reason})", f"conditions: {_cond(r.conditions)}",
-           f"k measured = {r.k_measured:.4g} M^-1 s^-1; highest possible 10^{r.log10_k_max:.2f} at "
+           f"k measured = {r.k_measured:.4g} M^-1 s^-1; k_D = 10^{r.log10_k_diff:.2f}{_kd_sd(r)}; highest possible 10^{r.log10_k_max:.2f} at "
            f"E = {r.E_at_maximum_V:.3f} V; lambda12 = {r.lambda_kJ_per_mol:.1f} kJ/mol"]
     for E, (lo, hi), side, ok in zip(r.E_V, r.E_V_95, r.E_regime, r.supported, strict=True):
         out.append(f"E = {E:.4f} V vs {r.E_scale} ({side} side; 95 % [{lo:.3f}, {hi:.3f}]): "

@@ -19,9 +19,11 @@ from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
 from .carried_potentials import potential_warnings
 from .conditions import Conditions
+from .measured_check import DEFAULT_MEASURED_LOG10_SD, require_positive
 from .prediction import ResolvedConditions, carry_potentials, resolve_conditions
 from .results import UsedConditions
 from .self_exchange import self_exchange_at
+from .uncertainty import DEFAULT_K_DIFF_LOG10_SD
 
 LN10 = math.log(10.0)
 ROLES = ("oxidant", "reductant", "auto")
@@ -52,6 +54,8 @@ class PairSetup:
     ln_kappa_partner: float = 0.0
     #: Correction carrying the unknown's library potential to the conditions (ionic strength, temperature), V.
     E_unknown_shift: float = 0.0
+    #: SD of ln k_D (the project's DEFAULT_K_DIFF_LOG10_SD with the cap on, 0 without it), ln units.
+    ln_k_diff_sd: float = 0.0
 
     @property
     def RT(self) -> float:
@@ -155,6 +159,7 @@ def setup_pair(
         ln_k_unknown=float(se.ln_k[0]), ln_k_unknown_sd=float(se.ln_k_sd[0]),
         ln_k_diff=float("nan"), warnings=notes, E_unknown_shift=shift_u,
         ln_kappa_unknown=float(np.log(se.kappa_el[0])), ln_kappa_partner=float(np.log(se.kappa_el[1])),
+        ln_k_diff_sd=DEFAULT_K_DIFF_LOG10_SD * LN10 if rc.diffusion else 0.0,
     )
     # k_D depends only on radii, charges and solvent, not on E or k_self: evaluate once with placeholders.
     probe = setup.evaluate(ln_k_unknown=0.0 if not np.isfinite(setup.ln_k_unknown) else None)
@@ -176,6 +181,34 @@ def activation_target(setup: PairSetup, ln_k_measured: float) -> tuple[float, bo
         )
     ln_act = ln_k_measured - math.log1p(-math.exp(gap))
     return ln_act, ln_act > setup.ln_k_diff + LN10
+
+
+def activation_target_nudged_k_diff(setup: PairSetup, ln_k_measured: float, d_ln_k_diff: float) -> float | None:
+    """ln k_act as activation_target() gives it with ln k_D moved by d_ln_k_diff (ln units), for propagating
+    the SD of k_D; None when the moved k_D falls to or below the measured rate (no activation rate there)."""
+    try:
+        return activation_target(replace(setup, ln_k_diff=setup.ln_k_diff + d_ln_k_diff), ln_k_measured)[0]
+    except ScienceError:
+        return None
+
+
+def brentq_solver():
+    """scipy.optimize.brentq, imported only when a solve actually runs (keeps scipy off other commands' start)."""
+    from scipy.optimize import brentq
+
+    return brentq
+
+
+def measured_sd(sd) -> tuple[float, bool]:
+    """(SD of log10 k_measured, whether it is the default) from a user's value or None."""
+    if sd is None:
+        return DEFAULT_MEASURED_LOG10_SD, True
+    return require_positive(sd, "measured SD", "a positive number in log10 units"), False
+
+
+def check_measured_rate(k) -> float:
+    """The measured cross rate, M^-1 s^-1, refused unless a finite number above 0."""
+    return require_positive(k, "measured rate", "a rate constant greater than 0 in M^-1 s^-1")
 
 
 def lambda_kJ(setup: PairSetup, ln_k_self: float, which: str = "unknown") -> float:

@@ -246,3 +246,46 @@ def test_second_k_self_root_is_named_for_where_it_lies(E_unknown, region):
     if region == "reverse inverted":
         assert "reverse reaction in its inverted region" in sol.explanation
         assert "pair in the inverted region" not in sol.explanation
+
+
+# ---- the SD of k_D in the solvers' intervals ---------------------------------------------------------------
+
+def _var_k_self(cs, sd, k, cond):
+    return solve_k_self(cs, "hl-cyano", "hl-amm", k, k_measured_log10_sd=sd, role="oxidant",
+                        conditions=cond).log10_k_self_sd ** 2
+
+
+def _var_E(cs, sd, k, cond):
+    return solve_potential(cs, "hl-cyano", "hl-amm", k, k_measured_log10_sd=sd, role="oxidant",
+                           conditions=cond).E_sd_V[0] ** 2
+
+
+@pytest.mark.parametrize("var_of", [_var_k_self, _var_E], ids=["k_self", "potential"])
+def test_k_diff_sd_enters_the_solvers_interval(analysis_set, monkeypatch, var_of):
+    # Derivation: ln k_act = ln k_obs - ln(1 - x), x = k_obs/k_D, so d ln k_act/d ln k_obs = 1/(1 - x) and
+    # d ln k_act/d ln k_D = -x/(1 - x): a root y moves with log10 k_D by x times as much as with log10 k_obs.
+    # The k_D term of the variance is therefore (x * dy/dlog10 k_obs * 0.3)^2, with dy/dlog10 k_obs read off
+    # two solves that differ only in the measurement SD (var(0.2) - var(0.1) = slope^2 (0.04 - 0.01)) and
+    # 0.3 the project's SD of log10 k_D (services/uncertainty.py). First-order, so rtol 1e-3.
+    import crossrate.services.solve_setup as solve_setup
+
+    cond = Conditions()
+    # hl-cyano + hl-amm: a normal-region pair with k_act near k_D (10^9.9 and 10^10.15, invented couples).
+    k_D = 10.0 ** solve_k_self(analysis_set, "hl-cyano", "hl-amm", 1e6, role="oxidant",
+                               conditions=cond).log10_k_diff
+    x = 0.3  # far enough up the bend for k_D to matter, well below the diffusion-limited cut (k_act > 10 k_D)
+    with_kd = var_of(analysis_set, 0.1, x * k_D, cond)
+    slope_sq = (var_of(analysis_set, 0.2, x * k_D, cond) - with_kd) / (0.04 - 0.01)
+    monkeypatch.setattr(solve_setup, "DEFAULT_K_DIFF_LOG10_SD", 0.0)
+    without_kd = var_of(analysis_set, 0.1, x * k_D, cond)
+    assert with_kd - without_kd == pytest.approx(slope_sq * (x * 0.3) ** 2, rel=1e-3)
+    assert with_kd > without_kd
+
+
+def test_no_k_diff_sd_without_the_cap(analysis_set):
+    # With --no-diffusion there is no k_D to remove, so none of its spread enters (common practice).
+    sol = solve_k_self(analysis_set, "hl-phen", "hl-aqua", 1e6, role="oxidant",
+                       conditions=Conditions(diffusion=False))
+    assert sol.log10_k_diff_sd == 0.0
+    capped = solve_k_self(analysis_set, "hl-phen", "hl-aqua", 1e6, role="oxidant", conditions=Conditions())
+    assert capped.log10_k_diff_sd == pytest.approx(0.3, abs=0)
