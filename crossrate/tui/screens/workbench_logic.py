@@ -229,7 +229,8 @@ class WorkbenchLogic:
         from ...services.prediction import predict
 
         try:
-            return predict(self.couple_set, ox, red, cond, samples=samples, seed=12345)
+            # The API's default seed is the CLI's, so a saved result is reproduced by `crossrate predict`.
+            return predict(self.couple_set, ox, red, cond, samples=samples)
         except CrossrateError:
             return None
 
