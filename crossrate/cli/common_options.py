@@ -65,7 +65,8 @@ def add_library_option(parser: argparse.ArgumentParser) -> None:
 
 
 def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: str = "the couples' own") -> None:
-    """--temperature, --ionic-strength, --medium, --allow-mixed-media, --allow-E-other-medium, --Z, --no-diffusion."""
+    """--temperature, --ionic-strength, --medium, --allow-mixed-media, --allow-E-other-medium, --Z, --no-diffusion,
+    --activity-model."""
     g = parser.add_argument_group("conditions")
     g.add_argument(
         "--temperature", type=finite_float, default=STANDARD_TEMPERATURE, metavar="K",
@@ -90,6 +91,15 @@ def add_condition_options(parser: argparse.ArgumentParser, ionic_default_text: s
         help=f"collision factor Z in M^-1 s^-1, 1e9 to 1e13 (default {DEFAULT_Z:g}; held constant in temperature)",
     )
     g.add_argument("--no-diffusion", action="store_true", help="do not cap the rate at the diffusion limit")
+    g.add_argument(
+        "--activity-model", choices=tuple(ACTIVITY_MODEL_CHOICES), default="debye-huckel",
+        help="activity coefficients that carry formal potentials in ionic strength: debye-huckel (extended, "
+             "the couple's radius as ion size; I up to about 0.1 M; default) or davies (up to about 0.5 M)",
+    )
+
+
+#: --activity-model choices and the equation each names (crossrate.core.potential_transfer's names).
+ACTIVITY_MODEL_CHOICES = {"debye-huckel": "extended Debye-Hueckel", "davies": "Davies"}
 
 
 def add_rate_model_options(parser: argparse.ArgumentParser) -> None:
@@ -124,6 +134,7 @@ def conditions_from_args(args):
         allow_E_other_medium=getattr(args, "allow_E_other_medium", False),
         rate_model=getattr(args, "rate_model", "classical"),
         hbar_omega_cm1=getattr(args, "hbar_omega", None),
+        activity_model=ACTIVITY_MODEL_CHOICES[getattr(args, "activity_model", "debye-huckel")],
     )
 
 

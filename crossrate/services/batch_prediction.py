@@ -95,15 +95,16 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
         lnk_ox, sd_ox, lnk_red, sd_red = se.ln_k[ox], se.ln_k_sd[ox], se.ln_k[red], se.ln_k_sd[red]
     # Formal potentials carried to each pair's conditions (same per-couple carrying as predict()).
     pair_medium_E = cond.medium if cond.medium is not None else a.medium[ox]
+    act = cond.activity_model
     if groups is None and not (per_pair_I or per_pair_medium):
-        pa_all = potentials_at(cs, np.arange(len(cs)), T, I, eps, medium=cond.medium)
+        pa_all = potentials_at(cs, np.arange(len(cs)), T, I, eps, medium=cond.medium, activity_model=act)
         E_ox, sE1, E_red, sE2 = pa_all.E_root_V[ox], pa_all.E_sd_V[ox], pa_all.E_root_V[red], pa_all.E_sd_V[red]
         other_E = pa_all.other_medium[ox] | pa_all.other_medium[red]
         E_by_group = [pa_all.E_root_V]
     else:
         I_pair = np.broadcast_to(np.nan_to_num(np.asarray(I, dtype=float), nan=0.0), (n,))
-        pa_ox = potentials_at(cs, ox, T, I_pair, eps, medium=pair_medium_E)
-        pa_red = potentials_at(cs, red, T, I_pair, eps, medium=pair_medium_E)
+        pa_ox = potentials_at(cs, ox, T, I_pair, eps, medium=pair_medium_E, activity_model=act)
+        pa_red = potentials_at(cs, red, T, I_pair, eps, medium=pair_medium_E, activity_model=act)
         E_ox, sE1, E_red, sE2 = pa_ox.E_root_V, pa_ox.E_sd_V, pa_red.E_root_V, pa_red.E_sd_V
         other_E = pa_ox.other_medium | pa_red.other_medium
         E_by_group = None
@@ -150,7 +151,8 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
                 if E_by_group is None:
                     E_by_group = [
                         potentials_at(cs, np.arange(len(cs)), T, g.I_M, g.eps_r,
-                                      medium=g.medium if cond.medium is None else cond.medium).E_root_V
+                                      medium=g.medium if cond.medium is None else cond.medium,
+                                      activity_model=act).E_root_V
                         for g in groups
                     ]
                 sd = linear_sd_grouped(cs, ox, red, groups, lnk_by_group, (sE1, sE2, sd_ox, sd_red), T, ln_Z,

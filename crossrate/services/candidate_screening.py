@@ -87,7 +87,7 @@ def screen_candidates(couple_set: CoupleSet, target: str, role: str, table: Cand
     if not np.isfinite(se.ln_k[0]):
         raise ScienceError(f"{target}: {se.reason[0] or 'no self-exchange rate'}; expected k_self, lambda_total, "
                            "lambda_in or bonds")
-    pa = potentials_at(couple_set, ti, T, I, eps, medium=medium)
+    pa = potentials_at(couple_set, ti, T, I, eps, medium=medium, activity_model=cond.activity_model)
     if pa.other_medium[0] and not cond.allow_E_other_medium:
         raise ConditionsError(f"{target}: its potential was measured in {c.medium}, not {medium}; expected the "
                               "same medium (or allow it with --allow-E-other-medium)")

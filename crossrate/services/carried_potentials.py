@@ -2,9 +2,9 @@
 
 What is carried, and how (documented in the README, "Formal potentials at the target conditions"):
 1. ionic strength: from the ionic strength E was measured at (E_ionic_strength, default ionic_strength) to the
-   target one, with activity coefficients of Ox and Red from the extended Debye-Hueckel equation, the couple's
-   radius as the ion-size parameter, the target solvent's permittivity at the target temperature
-   (crossrate.core.potential_transfer);
+   target one, with activity coefficients of Ox and Red from the extended Debye-Hueckel equation (the couple's
+   radius as the ion-size parameter) or, when the conditions ask for it, the Davies equation, with the target
+   solvent's permittivity at the target temperature (crossrate.core.potential_transfer);
 2. temperature: with the couple's dE_dT (mV/K) when given; when the temperature differs and none is given,
    E is held and its standard uncertainty grows by DEFAULT_DE_DT_SD_V_PER_K x |Delta T| (in quadrature);
 3. solvent: not carried. A potential measured in one medium is not transferable to another (liquid-junction
@@ -29,7 +29,7 @@ from .uncertainty import DEFAULT_E_SD_V
 #: couples correspond to about 0 to 2 mV/K (aqua ions at the top; from memory), so 1 mV/K as one SD covers
 #: most couples within two SD.
 DEFAULT_DE_DT_SD_V_PER_K = 1e-3
-#: Activity-coefficient equation used to carry E in ionic strength.
+#: Activity-coefficient equation used to carry E in ionic strength unless the conditions choose another.
 ACTIVITY_MODEL = EXTENDED_DEBYE_HUCKEL
 #: Temperature difference (K) below which E is treated as measured at the target temperature.
 T_TOLERANCE_K = 1e-6
@@ -56,10 +56,12 @@ class PotentialsAt:
     no_coefficient: np.ndarray
 
 
-def potentials_at(couple_set: CoupleSet, idx, T_K, I_M, eps_r, medium=None) -> PotentialsAt:
+def potentials_at(couple_set: CoupleSet, idx, T_K, I_M, eps_r, medium=None,
+                  activity_model: str = ACTIVITY_MODEL) -> PotentialsAt:
     """Carry the potentials of couples idx to temperature T_K (K), ionic strength I_M (mol/L, scalar or per
     idx), in a solvent of relative permittivity eps_r (scalar or per idx) with key medium (scalar, per idx,
-    or None: each couple's own). Arrays broadcast over idx."""
+    or None: each couple's own), activity coefficients from activity_model (EXTENDED_DEBYE_HUCKEL or DAVIES).
+    Arrays broadcast over idx."""
     a = couple_set.arrays
     idx = np.asarray(idx, dtype=np.intp)
     n = idx.shape[0]
@@ -73,7 +75,7 @@ def potentials_at(couple_set: CoupleSet, idx, T_K, I_M, eps_r, medium=None) -> P
     I0 = a.E_I0_M[idx]
     I = np.broadcast_to(np.asarray(I_M, dtype=float), (n,))
     with np.errstate(invalid="ignore"):
-        dI = ionic_strength_shift_V(a.z_ox[idx], a.z_red[idx], a.radius_m[idx], I0, I, eps_r, T, ACTIVITY_MODEL)
+        dI = ionic_strength_shift_V(a.z_ox[idx], a.z_red[idx], a.radius_m[idx], I0, I, eps_r, T, activity_model)
     dI = np.where(other | (np.abs(I - I0) <= I_TOLERANCE_M), 0.0, dI)
     coef = a.dE_dT_V_per_K[idx]
     moved = np.abs(T - T0) > T_TOLERANCE_K
@@ -94,7 +96,8 @@ def potentials_at(couple_set: CoupleSet, idx, T_K, I_M, eps_r, medium=None) -> P
     )
 
 
-def basis_text(couple, pa: PotentialsAt, k: int, T_K: float, I_M: float, medium: str) -> str:
+def basis_text(couple, pa: PotentialsAt, k: int, T_K: float, I_M: float, medium: str,
+               activity_model: str = ACTIVITY_MODEL) -> str:
     """How entry k's potential was carried, in one line (the couple record gives radius and units)."""
     if bool(pa.other_medium[k]):
         return (
@@ -104,10 +107,8 @@ def basis_text(couple, pa: PotentialsAt, k: int, T_K: float, I_M: float, medium:
     parts = []
     I0 = float(pa.I_from_M[k])
     if abs(I0 - I_M) > I_TOLERANCE_M:
-        parts.append(
-            f"I {I0:g} -> {I_M:g} M: {ACTIVITY_MODEL}, a = {couple.radius:g} A "
-            f"({float(pa.dE_ionic_V[k]) * 1e3:+.1f} mV)"
-        )
+        size = f", a = {couple.radius:g} A" if activity_model == EXTENDED_DEBYE_HUCKEL else ""
+        parts.append(f"I {I0:g} -> {I_M:g} M: {activity_model}{size} ({float(pa.dE_ionic_V[k]) * 1e3:+.1f} mV)")
     T0 = float(pa.T_from_K[k])
     if abs(T0 - T_K) > T_TOLERANCE_K:
         if bool(pa.no_coefficient[k]):
@@ -122,7 +123,8 @@ def basis_text(couple, pa: PotentialsAt, k: int, T_K: float, I_M: float, medium:
     return "; ".join(parts) if parts else "as given (measured at these conditions)"
 
 
-def potential_warnings(couples, pa: PotentialsAt, T_K: float, I_M: float, medium: str) -> tuple[str, ...]:
+def potential_warnings(couples, pa: PotentialsAt, T_K: float, I_M: float, medium: str,
+                       activity_model: str = ACTIVITY_MODEL) -> tuple[str, ...]:
     """Warnings about the carried potentials of `couples` (entries of pa in the same order)."""
     out = []
     for k, c in enumerate(couples):
@@ -136,10 +138,10 @@ def potential_warnings(couples, pa: PotentialsAt, T_K: float, I_M: float, medium
                 f"without a temperature coefficient (dE_dT); its SD grows by "
                 f"{DEFAULT_DE_DT_SD_V_PER_K * 1e3:g} mV/K"
             )
-        limit = ACTIVITY_MODEL_RANGE_M[ACTIVITY_MODEL]
+        limit = ACTIVITY_MODEL_RANGE_M[activity_model]
         if float(pa.dE_ionic_V[k]) != 0.0 and max(I_M, float(pa.I_from_M[k])) > limit:
             out.append(
-                f"{c.id}: E carried in ionic strength beyond the range of the {ACTIVITY_MODEL} equation "
+                f"{c.id}: E carried in ionic strength beyond the range of the {activity_model} equation "
                 f"(I up to about {limit:g} M): the correction of {float(pa.dE_ionic_V[k]) * 1e3:+.1f} mV is rough"
             )
     return tuple(out)

@@ -21,7 +21,9 @@ class Conditions:
     allow_mixed_media: couples measured in different media may react (k_self carried to the medium);
     allow_E_other_medium: a potential measured in another medium than the target's is used as given (not
     carried; the outputs say so) instead of refusing the pair.
-    rate_model: 'classical' or 'semiclassical' with hbar_omega_cm1 (cm^-1, None = default)."""
+    rate_model: 'classical' or 'semiclassical' with hbar_omega_cm1 (cm^-1, None = default).
+    activity_model: the activity-coefficient equation that carries formal potentials in ionic strength,
+    'extended Debye-Hueckel' (the default; I up to about 0.1 M) or 'Davies' (up to about 0.5 M)."""
 
     temperature_K: float = STANDARD_TEMPERATURE
     ionic_strength_M: float | None = None
@@ -34,12 +36,20 @@ class Conditions:
     rate_model: str = "classical"
     #: Energy of the semiclassical model's quantized mode, cm^-1 (None: the default, 1500 cm^-1).
     hbar_omega_cm1: float | None = None
+    #: crossrate.core.potential_transfer.EXTENDED_DEBYE_HUCKEL or DAVIES.
+    activity_model: str = "extended Debye-Hueckel"
 
     def __post_init__(self):
         if self.rate_model != "classical" or self.hbar_omega_cm1 is not None:
             from .rate_model import check_rate_model
 
             check_rate_model(self.rate_model, self.hbar_omega_cm1)
+        if self.activity_model != "extended Debye-Hueckel":
+            from ..core.potential_transfer import ACTIVITY_MODELS
+
+            if self.activity_model not in ACTIVITY_MODELS:
+                raise ConditionsError(f"activity model {self.activity_model!r}: expected one of "
+                                      f"{', '.join(repr(m) for m in ACTIVITY_MODELS)}")
         T = self.temperature_K
         if isinstance(T, bool) or not (isinstance(T, int | float) and np.isfinite(T)) or not (
             TEMPERATURE_RANGE_K[0] <= T <= TEMPERATURE_RANGE_K[1]

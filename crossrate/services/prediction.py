@@ -57,6 +57,8 @@ class ResolvedConditions:
     Z: float
     diffusion: bool
     warnings: tuple[str, ...]
+    #: Activity-coefficient equation carrying formal potentials in ionic strength (Conditions.activity_model).
+    activity_model: str = "extended Debye-Hueckel"
 
 
 def resolve_conditions(ox: Couple, red: Couple, cond: Conditions) -> ResolvedConditions:
@@ -100,6 +102,7 @@ def resolve_conditions(ox: Couple, red: Couple, cond: Conditions) -> ResolvedCon
         Z=float(cond.Z),
         diffusion=cond.diffusion,
         warnings=tuple(notes),
+        activity_model=cond.activity_model,
     )
 
 
@@ -118,7 +121,8 @@ def carry_potentials(cs: CoupleSet, ox: Couple, red: Couple, rc: ResolvedConditi
     """PotentialsAt of (oxidant, reductant) at the resolved conditions; ConditionsError when a potential was
     measured in another medium and the conditions do not allow using it as measured."""
     idx = cs.index_of([ox.id, red.id])
-    pa = potentials_at(cs, idx, rc.temperature_K, rc.ionic_strength_M, rc.eps_r, medium=rc.medium)
+    pa = potentials_at(cs, idx, rc.temperature_K, rc.ionic_strength_M, rc.eps_r, medium=rc.medium,
+                       activity_model=rc.activity_model)
     if not cond.allow_E_other_medium:
         for c, other in zip((ox, red), pa.other_medium.tolist(), strict=True):
             if other:
@@ -140,7 +144,7 @@ def potential_records(ox: Couple, red: Couple, pa, rc: ResolvedConditions) -> tu
             temperature_correction_V=dT,
             E_sd_V=float(pa.E_sd_V[k]),
             carried=not bool(pa.other_medium[k]),
-            basis=basis_text(c, pa, k, rc.temperature_K, rc.ionic_strength_M, rc.medium),
+            basis=basis_text(c, pa, k, rc.temperature_K, rc.ionic_strength_M, rc.medium, rc.activity_model),
         ))
     return tuple(out)
 
@@ -270,7 +274,7 @@ def predict(
     regime = regime_name(res.regime)
     warnings = (
         rc.warnings
-        + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium)
+        + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium, rc.activity_model)
         + pair_warnings(ox, red, rc, res, estimated, defaulted)
         + validity_warnings(ox, red, rc, float(np.asarray(res.ln_W12)))
     )

@@ -153,7 +153,7 @@ def rate_map(
         eps, visc = float(sol.permittivity(T)), float(sol.viscosity_Pa_s(T))
         members = idx[pos]
         se = self_exchange_at(couple_set, members, T, I, eps, ln_Z, medium=medium)
-        pa = potentials_at(couple_set, members, T, I, eps, medium=medium)
+        pa = potentials_at(couple_set, members, T, I, eps, medium=medium, activity_model=cond.activity_model)
         if cond.allow_E_other_medium:
             not_carried.extend(a.ids[i] for i in members[pa.other_medium].tolist())
         ok = np.isfinite(se.ln_k) & (cond.allow_E_other_medium | ~pa.other_medium)

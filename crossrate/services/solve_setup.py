@@ -149,7 +149,9 @@ def setup_pair(
     pa = carry_potentials(couple_set, ox, red, rc, cond)
     k_u, k_p = (0, 1) if role == "oxidant" else (1, 0)
     shift_u = float(pa.dE_ionic_V[k_u] + pa.dE_temperature_V[k_u])
-    notes = rc.warnings + potential_warnings((ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium)
+    notes = rc.warnings + potential_warnings(
+        (ox, red), pa, rc.temperature_K, rc.ionic_strength_M, rc.medium, rc.activity_model
+    )
 
     setup = PairSetup(
         unknown=u, partner=p, role=role, role_reason=reason, rc=rc,

@@ -90,6 +90,22 @@ def test_predict_table_and_json_show_E_as_given_and_used(run_cli, lib):
     assert any(w.startswith("tri: E measured at 298.15 K, used at 310 K") for w in d["warnings"])
 
 
+def test_activity_model_option_reaches_every_command(run_cli, lib):
+    # The Davies basis is named in predict's JSON and changes the carried E; map and solve take the option too.
+    base = ("predict", "tri", "ani", "--ionic-strength", "0.3", "--samples", "0", "--format", "json")
+    dh = json.loads(run_cli(*base, *lib, library=False)[1])
+    rc, out, _ = run_cli(*base, "--activity-model", "davies", *lib, library=False)
+    dv = json.loads(out)
+    assert rc == 0 and dv["potentials"][0]["basis"].startswith("I 0 -> 0.3 M: Davies (")
+    assert dh["potentials"][0]["basis"].startswith("I 0 -> 0.3 M: extended Debye-Hueckel, a = 6 A")
+    assert dv["log10_k_obs"] != dh["log10_k_obs"]
+    maps = [run_cli("map", "--medium", "water", "--ionic-strength", "0.3", *extra, "--format", "json", *lib,
+                    library=False) for extra in ((), ("--activity-model", "davies"))]
+    assert [m[0] for m in maps] == [0, 0] and maps[0][1] != maps[1][1]
+    rc, out, err = run_cli(*base, "--activity-model", "guntelberg", *lib, library=False)
+    assert rc == 2 and "invalid choice: 'guntelberg'" in err and "Traceback" not in err
+
+
 def test_other_medium_refused_in_one_line_then_allowed(run_cli, lib):
     args = ("predict", "tri", "mecn", "--medium", "water", "--allow-mixed-media", "--samples", "0")
     rc, out, err = run_cli(*args, *lib, library=False)

@@ -67,6 +67,39 @@ def test_ionic_strength_carries_E_and_the_driving_force(cs):
     assert p0.potentials[0].E_at_conditions_V == 0.40 and "as given" in p0.potentials[0].basis
 
 
+def test_davies_equation_when_chosen(cs):
+    # Davies equation (Davies 1938, textbook form): log10 g = -A z^2 (sqrt(I)/(1 + sqrt(I)) - 0.3 I), with A from
+    # scipy.constants and the project's water permittivity (as above); no ion size. For one electron
+    # dE = (RT/F) ln 10 (-A) (z_ox^2 - z_red^2) [g(I2) - g(I1)], g(I) = sqrt(I)/(1 + sqrt(I)) - 0.3 I.
+    T = 298.15
+    eps = float(get_solvent("water").permittivity(T))
+    B = math.sqrt(2000.0 * sc.N_A * sc.e**2 / (sc.epsilon_0 * eps * sc.k * T))
+    A = sc.e**2 * B / (8.0 * math.pi * sc.epsilon_0 * eps * sc.k * T * math.log(10.0))
+    F = sc.physical_constants["Faraday constant"][0]
+
+    def g(I):
+        return math.sqrt(I) / (1.0 + math.sqrt(I)) - 0.3 * I
+
+    def davies(z_ox, I1, I2):
+        return sc.R * T * math.log(10.0) / F * (-A) * (z_ox**2 - (z_ox - 1) ** 2) * (g(I2) - g(I1))
+
+    davies_cond = Conditions(ionic_strength_M=0.3, activity_model="Davies")
+    p = predict(cs, "tri", "ani", davies_cond, samples=0)
+    tri, ani = p.potentials
+    assert tri.ionic_correction_V == pytest.approx(davies(3, 0.0, 0.3), abs=1e-9)
+    assert ani.ionic_correction_V == pytest.approx(davies(-3, 0.0, 0.3), abs=1e-9)
+    assert "Davies" in tri.basis and "a = " not in tri.basis
+    # Within the Davies equation's range (0.5 M) no range warning; the default equation's 0.1 M is exceeded.
+    assert not any("beyond the range" in w for w in p.warnings)
+    dh = predict(cs, "tri", "ani", Conditions(ionic_strength_M=0.3), samples=0)
+    assert any("beyond the range of the extended Debye-Hueckel" in w for w in dh.warnings)
+
+
+def test_unknown_activity_model_is_refused():
+    with pytest.raises(ConditionsError, match="activity model 'Guntelberg'.*expected one of"):
+        Conditions(activity_model="Guntelberg")
+
+
 def test_own_ionic_strength_of_E_is_used(cs):
     p = predict(cs, "mono", "neu", Conditions(ionic_strength_M=0.1), samples=0)
     mono = p.potentials[0]
@@ -121,6 +154,7 @@ def test_other_medium_is_refused_unless_allowed(cs):
 @pytest.mark.parametrize("cond", [
     Conditions(ionic_strength_M=0.1, temperature_K=310.0),
     Conditions(ionic_strength_M=0.3),
+    Conditions(ionic_strength_M=0.3, activity_model="Davies"),
     Conditions(temperature_K=290.0, ionic_strength_M=0.0, medium="water"),
 ])
 def test_predict_screen_and_map_agree(cs, cond):
