@@ -42,7 +42,8 @@ async def _ready(pilot) -> WorkbenchScreen:
     for _ in range(200):
         await pilot.pause(0.02)
         s = pilot.app.screen
-        if isinstance(s, WorkbenchScreen) and s.couple_set is not None:
+        # the services follow the rows (the detail's λ breakdown): conditions are set when they are ready
+        if isinstance(s, WorkbenchScreen) and s.couple_set is not None and s.conditions is not None:
             return s
     raise RuntimeError("the demo library did not load")
 

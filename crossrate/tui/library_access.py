@@ -39,6 +39,30 @@ def _load_files_only(library_paths):
     return CoupleSet(list(couples.values()), files=files), ""
 
 
+#: What the workbench needs once the rows are shown (numpy, the conditions, the solvent table, the services of
+#: the detail's λ breakdown and of a prediction): imported by import_services in a worker thread.
+SERVICE_MODULES = (
+    "crossrate.services.conditions",
+    "crossrate.core.solvents",
+    "crossrate.services.lambda_estimate",
+    "crossrate.services.prediction",
+)
+
+
+def services_imported() -> bool:
+    import sys
+
+    return all(name in sys.modules for name in SERVICE_MODULES)
+
+
+def import_services() -> None:
+    """Import SERVICE_MODULES (about 0.1 s, mostly numpy), so the workbench's event loop does not wait for them."""
+    import importlib
+
+    for name in SERVICE_MODULES:
+        importlib.import_module(name)
+
+
 def lambda_lines(couple_set, couple, conditions=None, unit: str = "kJ/mol") -> list[str]:
     """The reorganization-energy breakdown of a couple (inner, outer, work; measured beside the estimate),
     as lines for the detail panel, from services.lambda_estimate, energies in `unit` (kJ/mol, kcal/mol or

@@ -2,6 +2,7 @@
 scan rate, all from crossrate.services.electrode_view."""
 
 import pytest
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async, small_couples
 from tui_screen_text import screen_text
 
@@ -9,17 +10,7 @@ from crossrate.library.couple_set import CoupleSet
 from crossrate.services.conditions import Conditions
 from crossrate.services.electrode_rate import predict_k0
 from crossrate.tui.app import CrossrateApp
-from crossrate.tui.screens.workbench import WorkbenchScreen
 from crossrate.tui.widgets.electrode_panel import ElectrodePanel
-
-
-async def _ready(pilot):
-    for _ in range(50):
-        await pilot.pause(0.02)
-        screen = pilot.app.screen
-        if isinstance(screen, WorkbenchScreen) and screen.couple_set is not None:
-            return screen
-    raise AssertionError("the library never loaded")
 
 
 async def _settle(pilot):

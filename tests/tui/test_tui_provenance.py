@@ -2,20 +2,11 @@
 the detail and the pair bar, and says in words when no couple is loaded."""
 
 from tui_fixtures import _c, run_async, small_couples
+from tui_fixtures import ready_workbench as _ready
 from tui_screen_text import screen_text
 
 from crossrate.library.couple_set import CoupleSet
 from crossrate.tui.app import CrossrateApp
-from crossrate.tui.screens.workbench import WorkbenchScreen
-
-
-async def _ready(pilot):
-    for _ in range(100):
-        await pilot.pause(0.02)
-        screen = pilot.app.screen
-        if isinstance(screen, WorkbenchScreen) and screen.couple_set is not None:
-            return screen
-    raise AssertionError("the library never loaded")
 
 
 def _set():

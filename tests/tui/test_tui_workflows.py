@@ -3,6 +3,7 @@
 import math
 
 import pytest
+from tui_fixtures import ready_workbench as _ready
 from tui_fixtures import run_async, settle, small_couples
 from tui_screen_text import screen_text
 
@@ -15,16 +16,6 @@ from crossrate.tui.screens.workbench import WorkbenchScreen
 from crossrate.tui.widgets.couple_table import CoupleTable
 from crossrate.tui.widgets.heat_map import HeatMap
 from crossrate.tui.widgets.prediction_panel import PredictionPanel
-
-
-async def _ready(pilot):
-    """Wait until the library worker has filled the table."""
-    for _ in range(50):
-        await pilot.pause(0.02)
-        screen = pilot.app.screen
-        if isinstance(screen, WorkbenchScreen) and screen.couple_set is not None:
-            return screen
-    raise AssertionError("the library never loaded")
 
 
 def _app(cs=None):
@@ -194,7 +185,8 @@ async def test_mixed_media_pair_is_refused_with_a_message():
         await pilot.pause()
         assert screen.problem.startswith("couples measured in different media")
         assert "! couples measured in different media" in screen_text(app)
-        # no good prediction yet: the panel gives the reason (not "No pair yet")
+        # no good prediction yet: the panel of view 2 gives the reason (not "No pair yet")
+        await pilot.press("2")
         assert str(screen.query_one("#prediction").content).startswith("! couples measured in different media")
 
 

@@ -96,13 +96,15 @@ def burst(app, keys) -> None:
 
 
 async def ready_workbench(pilot):
-    """The workbench screen once its library has loaded (the load runs in a worker after the first paint)."""
+    """The workbench screen once its library has loaded and the services are ready (the load runs in a worker
+    from the start; numpy and the services are imported in another once the rows are shown, and then the
+    detail's λ breakdown and the conditions follow)."""
     from crossrate.tui.screens.workbench import WorkbenchScreen
 
-    for _ in range(100):
+    for _ in range(250):
         await pilot.pause(0.02)
         s = pilot.app.screen
-        if isinstance(s, WorkbenchScreen) and s.couple_set is not None:
+        if isinstance(s, WorkbenchScreen) and s.couple_set is not None and s.conditions is not None:
             return s
     raise AssertionError("library never loaded")
 

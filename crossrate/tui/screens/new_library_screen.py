@@ -69,12 +69,17 @@ class NewLibraryScreen(ModalScreen[str | None]):
         self.dismiss(None)
 
 
+def missing_files(paths) -> list[str]:
+    """The paths of `paths` that name nothing (not even a dangling link)."""
+    return [p for p in paths if not Path(p).exists() and not Path(p).is_symlink()]
+
+
 def offer_missing_files(screen, then) -> None:
     """Ask, one file at a time, whether to create each --library file that does not exist yet; then call
     then() (the files declined stay missing and are reported by the loader as before)."""
     from .confirm_screen import ConfirmScreen
 
-    missing = [p for p in screen.app.library_paths if not Path(p).exists() and not Path(p).is_symlink()]
+    missing = missing_files(screen.app.library_paths)
 
     def ask(rest: list[str]) -> None:
         if not rest:

@@ -1,4 +1,7 @@
-"""The workbench screen: pair bar, view tabs and the six views; it wires user actions to the services."""
+"""The workbench screen: pair bar, view tabs and the seven views; it wires user actions to the services.
+
+Only the couples view is composed with the screen; the others are built on first visit (workbench_views.py).
+"""
 
 from textual import on, work
 from textual.app import ComposeResult
@@ -8,33 +11,26 @@ from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Footer, Input, Static
 
 from ...errors import CrossrateError
-from ..widgets.check_panel import CheckPanel
-from ..widgets.conditions_form import ConditionsForm
 from ..widgets.couple_detail import CoupleDetail
 from ..widgets.couple_table import CoupleTable
-from ..widgets.electrode_panel import ElectrodePanel
-from ..widgets.energy_plot import EnergyPlot
 from ..widgets.field_input import FieldInput
-from ..widgets.heat_map import HeatMap
 from ..widgets.pair_bar import PairBar
-from ..widgets.prediction_panel import PredictionPanel
-from ..widgets.rate_curve_plot import RateCurvePlot
-from ..widgets.series_view import SeriesTable
 from ..widgets.view_tabs import VIEWS, ViewTabs
 from .workbench_editing import WorkbenchEditing
 from .workbench_electrode import WorkbenchElectrode
 from .workbench_logic import WorkbenchLogic
+from .workbench_map import WorkbenchMap
 from .workbench_results import WorkbenchResults
 from .workbench_series import WorkbenchSeries
+from .workbench_views import WorkbenchViews
 
-#: Pause between the first refresh and the start of the library loader, s (see on_mount).
-FIRST_PAINT_GRACE_S = 0.08
 #: Below this terminal width the couple detail goes under the table instead of beside it, columns.
 NARROW_BELOW = 130
 
 
 class WorkbenchScreen(
-    WorkbenchLogic, WorkbenchEditing, WorkbenchResults, WorkbenchSeries, WorkbenchElectrode, Screen
+    WorkbenchLogic, WorkbenchViews, WorkbenchMap, WorkbenchEditing, WorkbenchResults, WorkbenchSeries,
+    WorkbenchElectrode, Screen
 ):
     """Main screen. The state and the calls to services live in WorkbenchLogic, library edits in
     WorkbenchEditing, saving and copying results in WorkbenchResults."""
@@ -77,16 +73,6 @@ class WorkbenchScreen(
                     yield CoupleTable(id="table")
                     with VerticalScroll(id="detail-scroll"):
                         yield CoupleDetail("Loading the library...", id="detail", markup=False)
-            with Horizontal(id="predict"):
-                yield ConditionsForm(id="conditions")
-                with VerticalScroll(id="prediction-scroll"):
-                    yield PredictionPanel(id="prediction")
-            yield RateCurvePlot(id="curve")
-            yield EnergyPlot(id="energy")
-            yield CheckPanel(id="check")
-            with Vertical(id="map"):
-                yield HeatMap(id="heat")
-            yield ElectrodePanel(id="electrode")
         yield Static("", id="status", markup=False)
         yield Footer()
 
@@ -94,13 +80,15 @@ class WorkbenchScreen(
         self.query_one(ViewTabs).show("couples", self.unit)
         self.query_one(PairBar).show(None, None, None)
         self.set_focus(self.query_one(CoupleTable))
-        # Load after the first frame is on the terminal: the loader imports numpy and scipy in a thread, and
-        # holding the GIL for that would delay the driver's writer thread (and so the first paint) by ~0.5 s.
-        # A --library file that does not exist yet is offered to be created first (new_library_screen.py).
-        from .new_library_screen import offer_missing_files
+        # The loader starts at once, in a thread beside the first layout and paint (it reads and validates the
+        # files, or takes them from the load cache, without numpy). A --library file that does not exist yet
+        # is offered to be created first (new_library_screen.py), after the first frame.
+        from .new_library_screen import missing_files, offer_missing_files
 
-        self.call_after_refresh(lambda: offer_missing_files(
-            self, lambda: self.set_timer(FIRST_PAINT_GRACE_S, self.start_loading)))
+        if missing_files(self.app.library_paths):
+            self.call_after_refresh(lambda: offer_missing_files(self, self.start_loading))
+        else:
+            self.start_loading()
 
     def on_resize(self, event) -> None:
         self.set_class(event.size.width < NARROW_BELOW, "-narrow")
@@ -110,6 +98,13 @@ class WorkbenchScreen(
     def start_loading(self) -> None:
         cs, problem = self.app.load_couple_set()
         self.app.call_from_thread(self.library_loaded, cs, problem)
+
+    @work(thread=True, group="services")
+    def run_import_services(self, cs, problem: str) -> None:
+        from ..library_access import import_services
+
+        import_services()
+        self.app.call_from_thread(self.finish_loading, cs, problem)
 
     @work(thread=True, exclusive=True, group="mc")
     def run_interval(self, key, ox: str, red: str, cond) -> None:
@@ -146,8 +141,9 @@ class WorkbenchScreen(
         if self.view == "electrode":
             self.refresh_electrode()
 
-    @on(ConditionsForm.Changed)
-    def _conditions(self, event: ConditionsForm.Changed) -> None:
+    # The handlers below are named after their messages (Textual's on_<widget>_<message>), so this module
+    # need not import the widgets of views built on first visit.
+    def on_conditions_form_changed(self, event) -> None:
         self.conditions = event.conditions
         self.cond_problem = ""
         self.show_detail(self._current())  # the λ breakdown is at the current conditions
@@ -155,29 +151,24 @@ class WorkbenchScreen(
         if self.view == "map":
             self.refresh_map()
 
-    @on(ConditionsForm.Invalid)
-    def _conditions_bad(self, event: ConditionsForm.Invalid) -> None:
+    def on_conditions_form_invalid(self, event) -> None:
         self.cond_problem = event.problem
         self.refresh_results()
 
-    @on(CheckPanel.Entered)
-    def _measured(self, event: CheckPanel.Entered) -> None:
+    def on_check_panel_entered(self, event) -> None:
         self.measured = (event.k, event.log10_sd) if event.k is not None else None
         self.refresh_check()
         self.refresh_curves()
 
-    @on(CheckPanel.SeriesRequested)
-    def _series_requested(self, event: CheckPanel.SeriesRequested) -> None:
+    def on_check_panel_series_requested(self, event) -> None:
         self.load_series(event.path)
 
-    @on(SeriesTable.Chosen)
-    def _series_row(self, event: SeriesTable.Chosen) -> None:
+    def on_series_table_chosen(self, event) -> None:
         r = event.row
         self.set_pair(r.oxidant, r.reductant)
         where = f"line {r.line}" if r.line is not None else "the series"
         self.status(f"pair from {where}: {r.oxidant} + {r.reductant} (measured {r.k_measured:.3g} M⁻¹ s⁻¹; "
                     "that row's own T, I and medium are in the file)")
 
-    @on(HeatMap.Chosen)
-    def _cell_chosen(self, event: HeatMap.Chosen) -> None:
+    def on_heat_map_chosen(self, event) -> None:
         self.set_pair(event.oxidant, event.reductant)

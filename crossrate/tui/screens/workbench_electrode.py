@@ -2,8 +2,6 @@
 
 from textual import work
 
-from ..widgets.electrode_panel import ElectrodePanel
-
 
 class WorkbenchElectrode:
     """Mixin of WorkbenchScreen: refresh_electrode() shows the highlighted couple (else the oxidant) at the
@@ -15,9 +13,9 @@ class WorkbenchElectrode:
     def refresh_electrode(self) -> None:
         cid = self.electrode_couple()
         if self.couple_set is None or cid is None:
-            self.query_one(ElectrodePanel).show(None)
+            self.query_one("#electrode").show(None)
             return
-        self.query_one(ElectrodePanel).show(None, f"computing k0 and the voltammograms of {cid} ...")
+        self.query_one("#electrode").show(None, f"computing k0 and the voltammograms of {cid} ...")
         self.run_electrode(cid, self.conditions)
 
     @work(thread=True, exclusive=True, group="electrode")
@@ -29,4 +27,4 @@ class WorkbenchElectrode:
 
     def electrode_ready(self, view) -> None:
         if view.couple == self.electrode_couple():
-            self.query_one(ElectrodePanel).show(view)
+            self.query_one("#electrode").show(view)

@@ -9,16 +9,10 @@ from textual.widgets import ContentSwitcher, Input, OptionList, Static
 
 from ...errors import CrossrateError
 from ..units import next_unit
-from ..widgets.check_panel import CheckPanel, check_text
-from ..widgets.conditions_form import ConditionsForm
 from ..widgets.couple_detail import CoupleDetail
 from ..widgets.couple_rows import build_rows, e_unit, filter_rows
 from ..widgets.couple_table import CoupleTable
-from ..widgets.energy_plot import EnergyPlot
-from ..widgets.heat_map import HeatMap
 from ..widgets.pair_bar import PairBar
-from ..widgets.prediction_panel import PredictionPanel
-from ..widgets.rate_curve_plot import RateCurvePlot
 from ..widgets.view_tabs import ViewTabs
 
 #: The services phrase some fixes as command-line options; here they are fields of view 2.
@@ -73,12 +67,13 @@ class WorkbenchLogic:
     # -- library ----------------------------------------------------------------------------------------
     def library_loaded(self, cs, problem: str) -> None:
         """The set is read: the table first; what needs numpy and the services (the media list, the detail's
-        λ breakdown, the prediction) follows once the rows are on the screen (finish_loading)."""
+        λ breakdown, the prediction) follows once the rows are on the screen and the services are imported
+        (prepare_services, then finish_loading)."""
         self.app.load_problem = problem
         if cs is None:
             self.query_one(CoupleDetail).update(f"! {problem}")
             self.status("the library could not be read: fix the file, then ctrl+r reloads (ctrl+q quits)")
-            self.call_after_refresh(self.finish_loading, None, problem)
+            self.call_after_refresh(self.prepare_services, None, problem)
             return
         self.couple_set = cs
         self.rows = build_rows(cs)
@@ -89,15 +84,25 @@ class WorkbenchLogic:
             self.reductant = self.reductant if self.reductant in cs else None
         shadowed = f", {len(cs.shadowed)} shadowed by a later layer" if cs.shadowed else ""
         self.status(f"{len(cs)} couples from {len(cs.files) or 'the given'} file(s){shadowed}")
-        self.call_after_refresh(self.finish_loading, cs, problem)
+        self.call_after_refresh(self.prepare_services, cs, problem)
+
+    def prepare_services(self, cs, problem: str) -> None:
+        """finish_loading now if the services are imported, else after a worker thread has imported them (the
+        first time: numpy and the services take about 0.1 s, and the keys and the screen keep going meanwhile)."""
+        from ..library_access import services_imported
+
+        if services_imported():
+            self.finish_loading(cs, problem)
+        else:
+            self.run_import_services(cs, problem)
 
     def finish_loading(self, cs, problem: str) -> None:
-        from ...core.solvents import solvent_table
         from ...services.conditions import Conditions
 
         if self.conditions is None:
             self.conditions = Conditions()
-        self.query_one(ConditionsForm).set_media(sorted(solvent_table()))
+        if self.view_built("predict"):
+            self.show_media()
         if cs is None or cs is not self.couple_set:
             return
         # Every pane that shows a couple shows what the files now hold: the table keeps its cursor (so it
@@ -118,6 +123,12 @@ class WorkbenchLogic:
                 self.query_one(CoupleDetail).update(f"! {problem}")
             self.action_problems()
 
+    def show_media(self) -> None:
+        """The media of the solvent table as the choices of the conditions form (view 2)."""
+        from ...core.solvents import solvent_table
+
+        self.query_one("#conditions").set_media(sorted(solvent_table()))
+
     def status(self, text: str) -> None:
         self.query_one("#status", Static).update(text)
         if self.view == "couples":
@@ -134,7 +145,10 @@ class WorkbenchLogic:
     def show_detail(self, couple_id: str | None) -> None:
         cs = self.couple_set
         c = cs[couple_id] if cs is not None and couple_id in cs else None
-        lines = self.app.lambda_lines(cs, c, self.conditions, self.unit) if c is not None else None
+        # The λ breakdown needs numpy and the services: until finish_loading (after the rows are painted)
+        # has set the conditions, the detail shows the record alone, and finish_loading shows it again.
+        ready = c is not None and self.conditions is not None
+        lines = self.app.lambda_lines(cs, c, self.conditions, self.unit) if ready else None
         self.query_one(CoupleDetail).show(cs, c, lines)
 
     # -- pair -------------------------------------------------------------------------------------------
@@ -145,7 +159,7 @@ class WorkbenchLogic:
         if (ox, red) != (self.oxidant, self.reductant) and self.measured is not None:
             # A measured rate belongs to its pair: a new pair starts without one.
             self.measured = None
-            self.query_one(CheckPanel).clear()
+            self.view_part("check").clear()  # a measured k is entered in view 5: it is built
         self.oxidant, self.reductant = ox, red
         self.recompute()
 
@@ -160,7 +174,8 @@ class WorkbenchLogic:
     def action_swap(self) -> None:
         self.set_pair(self.reductant, self.oxidant)
 
-    def action_view(self, vid: str) -> None:
+    async def action_view(self, vid: str) -> None:
+        await self.ensure_view(vid)
         self.view = vid
         self.query_one(ContentSwitcher).current = vid
         self.query_one(ViewTabs).show(vid, self.unit)
@@ -195,9 +210,9 @@ class WorkbenchLogic:
             return False
         return True
 
-    def action_search(self) -> None:
+    async def action_search(self) -> None:
         if self.view != "couples":
-            self.action_view("couples")
+            await self.action_view("couples")
         self.set_focus(self.query_one("#search", Input))
 
     def action_toggle_detail(self) -> None:
@@ -282,11 +297,14 @@ class WorkbenchLogic:
         kinds = tuple(cs[c].provenance if cs is not None and c in cs else "" for c in (self.oxidant, self.reductant))
         self.query_one(PairBar).show(self.oxidant, self.reductant, p if current else None, self.problem,
                                      self.cond_problem if current else "", kinds)
-        self.query_one(PredictionPanel).show(p, self.unit, note)
+        if (panel := self.view_part("predict")) is not None:
+            panel.show(p, self.unit, note)
         self.refresh_curves()
         self.refresh_check()
 
     def refresh_curves(self) -> None:
+        if not (self.view_built("curve") or self.view_built("energy")):
+            return  # drawn when one of them is opened
         from ...services.curves import driving_force_curve, energy_surfaces
 
         p = self.prediction
@@ -299,11 +317,17 @@ class WorkbenchLogic:
         note = ""
         if p is not None and not self._prediction_is_current():
             note = f"(last good pair {p.oxidant} + {p.reductant}; the current pair gives no prediction)"
-        self.query_one(RateCurvePlot).show(driving_force_curve(p) if p else None, self.unit, measured, note)
-        self.query_one(EnergyPlot).show(energy_surfaces(p) if p else None, self.unit, note)
+        if (plot := self.view_part("curve")) is not None:
+            plot.show(driving_force_curve(p) if p else None, self.unit, measured, note)
+        if (plot := self.view_part("energy")) is not None:
+            plot.show(energy_surfaces(p) if p else None, self.unit, note)
 
     def refresh_check(self) -> None:
-        panel = self.query_one(CheckPanel)
+        from ..widgets.check_panel import check_text
+
+        panel = self.view_part("check")
+        if panel is None:
+            return
         p = self.prediction
         if self.measured is None:
             panel.show("Enter the rate constant you measured for the current pair under the current conditions.")
@@ -320,56 +344,6 @@ class WorkbenchLogic:
             panel.show(f"! {exc}")
             return
         panel.show(check_text(result, k))
-
-    # -- map --------------------------------------------------------------------------------------------
-    def refresh_map(self) -> None:
-        cs = self.couple_set
-        heat = self.query_one(HeatMap)
-        if cs is None:
-            return
-        ids = self.query_one(CoupleTable).shown_ids
-        medium = self.conditions.medium if self.conditions and self.conditions.medium else None
-        if medium is None:
-            anchor = self.oxidant if self.oxidant in cs else (ids[0] if ids else None)
-            medium = cs[anchor].medium if anchor else None
-        ids = [i for i in ids if cs[i].medium == medium]
-        if not ids:
-            heat.message("No couples in view (change the filter in the couples view).")
-            return
-        heat.message(f"computing the map of {len(ids)} couples...")
-        cond, model_note = self.conditions, ""
-        if cond is not None and cond.rate_model != "classical":
-            # The map has the classical model only: say so rather than mix models silently.
-            cond, model_note = cond.with_(rate_model="classical"), "; classical model (no semiclassical map)"
-        self.run_map(ids, cond, f"{len(ids)} couples in {medium} (the couples view's filter){model_note}")
-
-    def service_map(self, ids, cond):
-        from ...services.rate_map import rate_map
-
-        try:
-            return rate_map(self.couple_set, ids=ids, conditions=cond), ""
-        except CrossrateError as exc:
-            return None, str(exc)
-
-    def explain_pair(self, ox: str, red: str) -> str:
-        """Why a pair of the map gives no value (the service's message), "" when it does."""
-        from ...services.prediction import predict
-
-        try:
-            predict(self.couple_set, ox, red, self.conditions, samples=0)
-        except CrossrateError as exc:
-            return tui_wording(str(exc))
-        return ""
-
-    def map_ready(self, ids, result, note: str) -> None:
-        """result: the services.rate_map.RateMap (kept for saving it), None when it failed (note says why)."""
-        heat = self.query_one(HeatMap)
-        heat.explain = self.explain_pair
-        self.map_result = result
-        if result is None:
-            heat.message(f"! {note}")
-        else:
-            heat.show(ids, result.log10_k_obs, note)
 
     # -- other screens ----------------------------------------------------------------------------------
     def action_problems(self) -> None:
