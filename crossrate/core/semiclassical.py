@@ -165,7 +165,7 @@ def _mlj_shared(x, ls, lv, hw, T, lnA):
     n = np.arange(start, start + W)
     k = np.maximum(0, -n)[:, None] + np.arange(K)
     m = n[:, None] + k
-    fact = _ln_factorial_table(int(m.max()))
+    fact = _ln_factorial_table(int(max(m.max(), k.max())))
     ln_mu1 = math.log(mu1) if mu1 > 0 else -1e300
     ln_mu2 = math.log(mu2) if mu2 > 0 else -1e300
     tk = m * ln_mu1 - fact[m] + k * ln_mu2 - fact[k]

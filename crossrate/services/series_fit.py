@@ -5,8 +5,9 @@ Models (crossrate.services.series_models): classical Marcus (lambda, A), semicla
 (lambda = lambda_s + lambda_v, with a quantized mode of given hbar omega, and A) and a curve with no inverted
 region (the classical curve held at its top past -Delta G deg = lambda). A bimolecular series (k_obs,
 M^-1 s^-1) carries the diffusion limit, 1/k_obs = 1/k_act + 1/k_D; an intramolecular one (k_intra, s^-1) has
-none, its electronic coupling sits in A. Weighted least squares on log10 k (scipy.optimize.least_squares,
-several starts), standard errors from the Jacobian, profile-likelihood (default) or bootstrap 95 % intervals.
+none, its electronic coupling sits in A. Weighted least squares on log10 k (scipy.optimize.least_squares with
+analytic Jacobians, started from the lowest local minima of a coarse parameter grid), standard errors from
+the Jacobian, profile-likelihood (default) or bootstrap 95 % intervals.
 
 Scatter: with a log10_sd column the SDs are taken as known; without one, it is estimated from the residuals
 of the best-fitting model (RSS/dof) but not below MIN_LOG10_SD.
@@ -253,14 +254,13 @@ def fit_series(
     lkd_fixed = math.log10(k_diff) if diffusion == "fixed" else None
     keys = [k for k in MODEL_KEYS if not (k == "semiclassical" and n < p + 2)]
     probs = {k: Problem(SeriesModel(k, T, hw), x, y, sigma, diffusion, lkd_fixed) for k in keys}
-    res = {"classical": best_fit(probs["classical"], probs["classical"].starts())}
-    seeds = [res["classical"].x[0]]
-    res["no_inverted"] = best_fit(probs["no_inverted"], probs["no_inverted"].starts() + [res["classical"].x])
-    seeds.append(res["no_inverted"].x[0])
+    res = {"classical": best_fit(probs["classical"], probs["classical"].grid_starts(3))}
+    cl = list(res["classical"].x)
+    res["no_inverted"] = best_fit(probs["no_inverted"], probs["no_inverted"].grid_starts(3) + [cl])
     if "semiclassical" in probs:
-        # The semiclassical sum costs ~0.1 ms per curve: looser tolerances and a cap on each start's steps.
-        res["semiclassical"] = best_fit(probs["semiclassical"], probs["semiclassical"].starts(seeds), tol=1e-8,
-                                        max_nfev=150)
+        # Also from the classical solution (phi = 0), so that the semiclassical fit is never the worse one.
+        res["semiclassical"] = best_fit(probs["semiclassical"], probs["semiclassical"].grid_starts(3) +
+                                        [cl[:1] + [0.0] + cl[1:]], tol=1e-8, max_nfev=150)
     chi2 = {k: 2.0 * r.cost for k, r in res.items()}
     if given:
         s2, sigma_used, sd_used = 1.0, sigma, None

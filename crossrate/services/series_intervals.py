@@ -24,7 +24,8 @@ def best_fit(prob, starts, tol=1e-10, max_nfev=2000):
     best = None
     for th0 in starts:
         th0 = np.clip(np.asarray(th0, dtype=float), lo + 1e-9, hi - 1e-9)
-        r = ls(prob.residuals, th0, bounds=(lo, hi), x_scale="jac", xtol=tol, ftol=tol, gtol=tol, max_nfev=max_nfev)
+        r = ls(prob.residuals, th0, jac=prob.jacobian, bounds=(lo, hi), x_scale="jac", xtol=tol, ftol=tol, gtol=tol,
+               max_nfev=max_nfev)
         if best is None or r.cost < best.cost:
             best = r
     return best
@@ -40,7 +41,10 @@ def _profile(prob, theta_hat, s2):
         def res(rest):
             return prob.residuals(np.concatenate(([lam], rest)))
 
-        r = ls(res, np.clip(state["rest"], lo[1:] + 1e-9, hi[1:] - 1e-9), bounds=(lo[1:], hi[1:]),
+        def jac(rest):
+            return prob.jacobian(np.concatenate(([lam], rest)))[:, 1:]
+
+        r = ls(res, np.clip(state["rest"], lo[1:] + 1e-9, hi[1:] - 1e-9), jac=jac, bounds=(lo[1:], hi[1:]),
                x_scale="jac", xtol=1e-8, ftol=1e-8, max_nfev=1000)
         state["rest"] = r.x
         return 2.0 * r.cost / s2
@@ -92,7 +96,7 @@ def bootstrap_interval(prob, theta_hat, sigma_used, n_boot, seed, progress):
     try:
         for k in range(n_boot):
             prob.y = m_hat + sigma_used * rng.standard_normal(len(m_hat))
-            r = ls(prob.residuals, np.clip(theta_hat, lo + 1e-9, hi - 1e-9), bounds=(lo, hi), x_scale="jac",
+            r = ls(prob.residuals, np.clip(theta_hat, lo + 1e-9, hi - 1e-9), jac=prob.jacobian, bounds=(lo, hi), x_scale="jac",
                    xtol=1e-8, ftol=1e-8, max_nfev=1000)
             lams.append(r.x[0])
             if progress is not None:
