@@ -31,7 +31,6 @@ from .load_cache import LoadedLibrary, read_library_cached
 
 if TYPE_CHECKING:
     from .toml_reader import LibraryFile
-from .toml_loads import loads
 
 LAYERS = ("bundled", "demo", "group", "personal", "cli")
 STARTER_FILE = "starter.toml"
@@ -82,6 +81,9 @@ def read_config(path: Path | None = None) -> dict:
     except (OSError, UnicodeDecodeError) as exc:
         raise LibraryError([Problem(str(path), None, None, None, f"cannot be read ({exc}); expected a UTF-8 "
                                     "TOML config file")]) from None
+    # here, not at import: a cache hit with no config file parses no TOML (cold start)
+    from .toml_loads import loads
+
     try:
         raw = loads(text)
     except ValueError as exc:

@@ -11,7 +11,6 @@ Lines inside multi-line strings are skipped (a slower, eager path used only when
 import re
 
 from .couple import Origin
-from .toml_loads import loads
 
 _KEY = r'(?:[A-Za-z0-9_-]+|"(?:[^"\\\n]|\\.)*"|\'[^\'\n]*\')'
 _HEADER_START = re.compile(r"^[ \t]*\[", re.M)
@@ -32,6 +31,9 @@ def _unquote(part: str) -> str:
     if part[0] == '"':
         if "\\" not in part:
             return part[1:-1]
+        # here, not at import: only an escaped quoted key needs the parser (not a cache hit)
+        from .toml_loads import loads
+
         try:
             return loads(f"k = {part}")["k"]
         except ValueError:

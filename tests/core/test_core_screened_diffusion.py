@@ -179,3 +179,18 @@ def test_per_pair_conditions_take_one_table_per_group():
     np.testing.assert_allclose(got[:5000], exact[:5000], rtol=0, atol=TABLE_TOLERANCE)
     assert not np.array_equal(got[:5000], exact[:5000])  # the tables were used
     assert np.isnan(got[5000:]).all()
+
+
+def test_gauss_legendre_rule_is_numpys_to_the_last_bit():
+    # The 16-point rule is written out (no numpy.polynomial import at start-up); it must be the rule
+    # numpy.polynomial.legendre.leggauss(16) computes, to a few ulp (bit-equal where the LAPACK build is
+    # the development machine's), and integrate polynomials up to degree 31 exactly (Gauss-Legendre's
+    # defining property, common practice): Integral_-1^1 x^30 dx = 2/31.
+    from crossrate.core import screened_diffusion as sd
+
+    x, w = np.polynomial.legendre.leggauss(16)
+    np.testing.assert_allclose(sd._GL_X, x, rtol=1e-15, atol=1e-16)
+    np.testing.assert_allclose(sd._GL_W, w, rtol=1e-14, atol=0)
+    assert np.array_equal(sd._GL_X, -sd._GL_X[::-1]) and np.array_equal(sd._GL_W, sd._GL_W[::-1])
+    assert math.isclose(float(np.sum(sd._GL_W * sd._GL_X**30)), 2 / 31, rel_tol=1e-13)
+    assert math.isclose(float(np.sum(sd._GL_W)), 2.0, rel_tol=1e-15)
