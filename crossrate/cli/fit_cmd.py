@@ -101,12 +101,8 @@ def _print_table(fit, path) -> None:
         "models: " + fit.model_comparison,
         fit.lambda_statement,
     ]
-    sc = fit.model_fit("semiclassical")
-    if sc is not None:
-        lines.append(
-            f"semiclassical fit (hbar omega {fit.hbar_omega_cm1:g} cm^-1): lambda_s = {sc.lambda_s_kJ_per_mol:.1f} "
-            f"+- {sc.lambda_s_se:.1f}, lambda_v = {sc.lambda_v_kJ_per_mol:.1f} +- {sc.lambda_v_se:.1f} kJ/mol"
-            + ("" if fit.model == "semiclassical" else " (not the favoured model)"))
+    if fit.model_fit("semiclassical") is not None:
+        lines.append(f"semiclassical fit (hbar omega {fit.hbar_omega_cm1:g} cm^-1): {fit.lambda_split_statement}")
     lines += [
         f"log10 A = {fit.log10_A:.2f} +- {fit.log10_A_se:.2f}" + (
             f"; log10 k_D = {fit.log10_k_diff:.2f}" + (f" +- {fit.log10_k_diff_se:.2f}"

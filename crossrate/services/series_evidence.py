@@ -3,6 +3,8 @@ and whether they show an inverted region."""
 
 import math
 
+from .series_models import LAMBDA_BOUNDS_KJ
+
 
 def _likely(delta_aic: float) -> str:
     # Relative likelihood exp(-Delta AIC / 2), capped for printing.
@@ -92,3 +94,28 @@ def inverted_region_evidence(
         why = f"No: points lie {where} below the plateau, but the evidence is too weak"
     extra = f"; {n_dc} point{'s are' if n_dc != 1 else ' is'} diffusion-controlled" if n_dc else ""
     return f"{why}; {comparison}{extra}."
+
+
+def fit_warnings(given, chi2, dof, prob, theta, identified, keys, n, p):
+    """Warnings of a series fit: scatter beyond the stated SDs, parameters at the edge of their search range
+    (prob: the favoured model's Problem, theta its solution), an open lambda interval, a semiclassical model
+    left out (keys: the models fitted; n points, p parameters of the classical model)."""
+    out = []
+    if given and chi2 / max(dof, 1) > 4.0:
+        out.append(f"reduced chi-square {chi2 / max(dof, 1):.1f}: the scatter is larger than the stated SDs; the "
+                   "errors are likely underestimated")
+    lo_b, hi_b = prob.bounds()
+    names = list(prob.model.names) + (["log10 k_D"] if prob.diffusion == "fitted" else [])
+    for k, name in enumerate(names):
+        if name == "phi":
+            continue  # phi = 0 (no quantized mode) is a legitimate answer, not a failure
+        if min(theta[k] - lo_b[k], hi_b[k] - theta[k]) < 1e-6 * max(1.0, abs(theta[k])):
+            what = ("no diffusion plateau is seen; consider --no-diffusion or --k-diff" if name == "log10 k_D"
+                    else "not determined")
+            out.append(f"{name} ended at the edge of its search range ({theta[k]:.4g}): {what}")
+    if not identified:
+        out.append(f"the lambda interval is open within {LAMBDA_BOUNDS_KJ[0]:g}-{LAMBDA_BOUNDS_KJ[1]:g} kJ/mol: "
+                   "the data do not determine lambda")
+    if "semiclassical" not in keys:
+        out.append(f"{n} points are too few for the semiclassical model (at least {p + 2} needed); it was not fitted")
+    return out

@@ -34,9 +34,15 @@ from ..core.regime import REGIME_NAMES, classify_regime, diffusion_controlled
 from ..errors import ScienceError
 from .measured_csv import SeriesData
 from .results import _Record
-from .series_evidence import inverted_region_evidence, lambda_statement, model_comparison
+from .series_evidence import (
+    fit_warnings,
+    inverted_region_evidence,
+    lambda_statement,
+    model_comparison,
+)
 from .series_intervals import best_fit, bootstrap_interval, covariance, profile_interval
 from .series_models import LAMBDA_BOUNDS_KJ, LN10, MODEL_KEYS, MODEL_TITLES, Problem, SeriesModel
+from .series_split import lambda_split, split_statement
 
 #: Floor on the estimated scatter of log10 k when the file gives no SDs (+-12 %; common practice).
 MIN_LOG10_SD = 0.05
@@ -73,7 +79,8 @@ class SeriesPoint(_Record):
 @dataclass(frozen=True)
 class ModelFit(_Record):
     """One model fitted to the series. lambda (total) kJ/mol with its SE and 95 % interval (a side None
-    when open); for the semiclassical model lambda_s and lambda_v (kJ/mol) with Jacobian SEs; log10 A and
+    when open); for the semiclassical model lambda_s and lambda_v (kJ/mol) with Jacobian SEs and 95 %
+    intervals (crossrate.services.series_split); log10 A and
     log10 k_D in the series' unit; AIC, its difference from the best and the Akaike weight."""
 
     model: str
@@ -87,6 +94,8 @@ class ModelFit(_Record):
     lambda_s_se: float | None
     lambda_v_kJ_per_mol: float | None
     lambda_v_se: float | None
+    lambda_s_95: tuple[float | None, float | None] | None
+    lambda_v_95: tuple[float | None, float | None] | None
     log10_A: float
     log10_A_se: float
     log10_k_diff: float | None
@@ -103,7 +112,9 @@ class ModelFit(_Record):
 class SeriesFit(_Record):
     """Result of a series fit. kind 'bimolecular' (k in M^-1 s^-1) or 'unimolecular' (s^-1); model: the
     favoured model; lambda_* from it (kJ/mol, eV), lambda_95 the reported interval (see the module
-    docstring) and lambda_identified False when it is open; delta_aic = AIC(no inverted region) - AIC(the
+    docstring) and lambda_identified False when it is open; lambda_s, lambda_v and their 95 % intervals from
+    the semiclassical fit when it is the favoured model, lambda_split_determined whether the series fixes them
+    separately (crossrate.services.series_split) and lambda_split_statement saying so; delta_aic = AIC(no inverted region) - AIC(the
     model with an inverted region used in the test); models: every model fitted."""
 
     kind: str
@@ -140,6 +151,10 @@ class SeriesFit(_Record):
     models: tuple[ModelFit, ...]
     points: tuple[SeriesPoint, ...]
     warnings: tuple[str, ...] = field(default=())
+    lambda_s_95: tuple[float | None, float | None] | None = None
+    lambda_v_95: tuple[float | None, float | None] | None = None
+    lambda_split_determined: bool = False
+    lambda_split_statement: str = ""
 
     def model_fit(self, key: str) -> ModelFit | None:
         return next((m for m in self.models if m.model == key), None)
@@ -176,22 +191,17 @@ def _check_options(series, diffusion, k_diff, interval, hbar_omega_cm1):
     return kind, diffusion
 
 
-def _model_fit(key, prob, res, s2, aic, best_aic, weight, lam95, method):
+def _model_fit(key, prob, res, s2, aic, best_aic, weight, lam95, method, favoured):
     cov = covariance(res, s2)
     se = np.sqrt(np.clip(np.diag(cov), 0.0, None))
     core, lkd = prob.split(res.x)
-    ls = lv = ls_se = lv_se = None
-    if key == "semiclassical":
-        lam, phi = float(res.x[0]), float(res.x[1])
-        ls, lv = lam * (1.0 - phi), lam * phi
-        # Delta method: d(lambda_s) = (1 - phi) d lambda - lambda d phi; d(lambda_v) = phi d lambda + lambda d phi.
-        g_s, g_v = np.array([1.0 - phi, -lam]), np.array([phi, lam])
-        c2 = cov[:2, :2]
-        ls_se, lv_se = float(np.sqrt(max(g_s @ c2 @ g_s, 0.0))), float(np.sqrt(max(g_v @ c2 @ g_v, 0.0)))
+    split = lambda_split(float(res.x[0]), float(res.x[1]), cov[:2, :2], favoured) if key == "semiclassical" else None
     return ModelFit(
         model=key, title=MODEL_TITLES[key], n_params=prob.n_params,
         lambda_kJ_per_mol=float(res.x[0]), lambda_se=float(se[0]), lambda_95=lam95, interval_method=method,
-        lambda_s_kJ_per_mol=ls, lambda_s_se=ls_se, lambda_v_kJ_per_mol=lv, lambda_v_se=lv_se,
+        lambda_s_kJ_per_mol=split and split.lambda_s, lambda_s_se=split and split.lambda_s_se,
+        lambda_v_kJ_per_mol=split and split.lambda_v, lambda_v_se=split and split.lambda_v_se,
+        lambda_s_95=split and split.lambda_s_95, lambda_v_95=split and split.lambda_v_95,
         log10_A=float(core[-1]), log10_A_se=float(se[len(core) - 1]),
         log10_k_diff=None if lkd is None else float(lkd),
         log10_k_diff_se=float(se[-1]) if prob.diffusion == "fitted" else None,
@@ -282,7 +292,7 @@ def fit_series(
             lam95 = bootstrap_interval(probs[k], res[k].x, sigma_used, int(bootstrap), seed,
                                        progress if k == best else None)
             method = "bootstrap"
-        fits[k] = _model_fit(k, probs[k], res[k], s2, aic[k], aic[best], w[k] / wsum, lam95, method)
+        fits[k] = _model_fit(k, probs[k], res[k], s2, aic[k], aic[best], w[k] / wsum, lam95, method, k == best)
     fav = fits[best]
     # The reported interval: the favoured model's (profile or bootstrap), widened to cover the Wald interval
     # of any model the data cannot tell apart from it. A semiclassical fit with no quantized part (phi ~ 0)
@@ -338,7 +348,7 @@ def fit_series(
         )
         for i in range(n)
     )
-    warnings = _warnings(given, chi2[best], n - probs[best].n_params, fav_prob, res[best].x, identified, keys, n, p)
+    warnings = fit_warnings(given, chi2[best], n - probs[best].n_params, fav_prob, res[best].x, identified, keys, n, p)
     return SeriesFit(
         kind=kind, rate_unit=series_unit(kind), n=n, temperature_K=T, diffusion=diffusion,
         hbar_omega_cm1=float(hbar_omega_cm1), model=best,
@@ -355,8 +365,21 @@ def fit_series(
         scatter="given" if given else "estimated", log10_sd_used=sd_used, delta_aic=delta_aic,
         model_comparison=model_comparison([fits[k] for k in keys], best),
         inverted_region_supported=supported, evidence=evidence, models=tuple(fits[k] for k in keys),
-        points=points, warnings=tuple(warnings),
+        points=points, warnings=tuple(warnings), **_split_fields(probs, res, s2, best),
     )
+
+
+def _split_fields(probs, res, s2, best):
+    """The SeriesFit fields on lambda_s and lambda_v (the semiclassical fit's split, when it was fitted)."""
+    if "semiclassical" not in probs:
+        return {"lambda_split_statement": "lambda_s and lambda_v are not separately determined: too few points "
+                                          "for the semiclassical model"}
+    r = res["semiclassical"]
+    favoured = best == "semiclassical"
+    split = lambda_split(float(r.x[0]), float(r.x[1]), covariance(r, s2)[:2, :2], favoured)
+    return {"lambda_s_95": split.lambda_s_95 if favoured else None,
+            "lambda_v_95": split.lambda_v_95 if favoured else None,
+            "lambda_split_determined": split.determined, "lambda_split_statement": split_statement(split, favoured)}
 
 
 def _wald_interval(result, s2):
@@ -373,25 +396,3 @@ def _wald_interval(result, s2):
 def series_unit(kind: str) -> str:
     """The rate unit of a series kind: M^-1 s^-1 (bimolecular) or s^-1 (unimolecular)."""
     return "s^-1" if kind == "unimolecular" else "M^-1 s^-1"
-
-
-def _warnings(given, chi2, dof, prob, theta, identified, keys, n, p):
-    out = []
-    if given and chi2 / max(dof, 1) > 4.0:
-        out.append(f"reduced chi-square {chi2 / max(dof, 1):.1f}: the scatter is larger than the stated SDs; the "
-                   "errors are likely underestimated")
-    lo_b, hi_b = prob.bounds()
-    names = list(prob.model.names) + (["log10 k_D"] if prob.diffusion == "fitted" else [])
-    for k, name in enumerate(names):
-        if name == "phi":
-            continue  # phi = 0 (no quantized mode) is a legitimate answer, not a failure
-        if min(theta[k] - lo_b[k], hi_b[k] - theta[k]) < 1e-6 * max(1.0, abs(theta[k])):
-            what = ("no diffusion plateau is seen; consider --no-diffusion or --k-diff" if name == "log10 k_D"
-                    else "not determined")
-            out.append(f"{name} ended at the edge of its search range ({theta[k]:.4g}): {what}")
-    if not identified:
-        out.append(f"the lambda interval is open within {LAMBDA_BOUNDS_KJ[0]:g}-{LAMBDA_BOUNDS_KJ[1]:g} kJ/mol: "
-                   "the data do not determine lambda")
-    if "semiclassical" not in keys:
-        out.append(f"{n} points are too few for the semiclassical model (at least {p + 2} needed); it was not fitted")
-    return out

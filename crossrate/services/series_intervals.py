@@ -31,13 +31,20 @@ def best_fit(prob, starts, tol=1e-10, max_nfev=2000):
     return best
 
 
-def _profile(prob, theta_hat, s2):
-    """chi2(lambda) / s2 minimized over the other parameters, as a function of lambda (kJ/mol)."""
+def _profile(prob, theta_hat, s2, chi2_min):
+    """chi2(lambda) / s2 minimized over the other parameters, as a function of lambda (kJ/mol). Each inner
+    fit starts from the last one; the values are kept, so that a bracket's ends keep the values that made it
+    a bracket (an inner fit with several local minima need not land in the same one twice)."""
     ls = _least_squares()
     lo, hi = prob.bounds()
     state = {"rest": np.asarray(theta_hat[1:], dtype=float)}
+    known = {float(theta_hat[0]): chi2_min}
 
     def value(lam):
+        lam = float(lam)
+        if lam in known:
+            return known[lam]
+
         def res(rest):
             return prob.residuals(np.concatenate(([lam], rest)))
 
@@ -47,7 +54,8 @@ def _profile(prob, theta_hat, s2):
         r = ls(res, np.clip(state["rest"], lo[1:] + 1e-9, hi[1:] - 1e-9), jac=jac, bounds=(lo[1:], hi[1:]),
                x_scale="jac", xtol=1e-8, ftol=1e-8, max_nfev=1000)
         state["rest"] = r.x
-        return 2.0 * r.cost / s2
+        known[lam] = 2.0 * r.cost / s2
+        return known[lam]
 
     return value
 
@@ -65,7 +73,7 @@ def profile_interval(prob, theta_hat, s2, chi2_min, se_guess=None):
     first = 0.08 if not se_guess or not np.isfinite(se_guess) else min(max(1.5 * se_guess / lam_hat, 0.02), 0.5)
     out = []
     for direction in (-1.0, 1.0):
-        prof = _profile(prob, theta_hat, s2)
+        prof = _profile(prob, theta_hat, s2, chi2_min)
         prev, step, bound = lam_hat, first, None
         for _ in range(40):
             lam = lam_hat * (1.0 + step) if direction > 0 else lam_hat / (1.0 + step)
