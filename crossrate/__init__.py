@@ -65,7 +65,7 @@ _LAZY = {
     "ElectrodeCheck": ("crossrate.services.electrode_check", "ElectrodeCheck"),
     # result records
     "Prediction": ("crossrate.services.results", "Prediction"),
-    "PredictionTable": ("crossrate.services.results", "PredictionTable"),
+    "PredictionTable": ("crossrate.services.prediction_table", "PredictionTable"),
     "UsedConditions": ("crossrate.services.results", "UsedConditions"),
     "WorkTerms": ("crossrate.services.results", "WorkTerms"),
     "CarriedPotential": ("crossrate.services.results", "CarriedPotential"),
@@ -162,12 +162,12 @@ if TYPE_CHECKING:  # static type checkers and IDEs see the real objects
         read_series_csv,
     )
     from .services.prediction import predict
+    from .services.prediction_table import PredictionTable
     from .services.progress import ProgressCallback
     from .services.rate_map import RateMap, rate_map
     from .services.results import (
         CarriedPotential,
         Prediction,
-        PredictionTable,
         UsedConditions,
         WorkTerms,
     )

@@ -1,7 +1,10 @@
 """crossrate's own exceptions. Nothing in the API prints or exits; the CLI maps these to exit code 2."""
 
 import re
-from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+if TYPE_CHECKING:
+    from .problem import Problem
 
 #: Characters a terminal may act on instead of showing: C0 controls but tab and newline, DEL, C1 controls,
 #: and the bidirectional overrides/isolates that can make text display in another order than it is stored.
@@ -31,45 +34,10 @@ class CrossrateError(Exception):
     """Base of every error crossrate raises on bad input. str(error) is one clear, user-facing message."""
 
 
-@dataclass(frozen=True)
-class Problem:
-    """One validation problem: where (file, line, couple, field) and what was wrong / expected."""
-
-    path: str
-    line: int | None
-    couple: str | None
-    field: str | None
-    message: str
-
-    def __str__(self) -> str:
-        loc = f"{self.path}:{self.line}" if self.line else f"{self.path}"
-        parts = [loc]
-        if self.couple:
-            parts.append(f"couple {self.couple}")
-        if self.field:
-            parts.append(f"field {self.field}")
-        parts.append(self.message)
-        return printable(": ".join(parts), keep_newlines=False)
-
-
-@dataclass(frozen=True)
-class ColumnProblem(Problem):
-    """A problem with a column too (TOML syntax, encoding, a CSV cell): shown as `path:line:column: ...`."""
-
-    column: int | None = None
-
-    def __str__(self) -> str:
-        text = super().__str__()
-        if self.line and self.column:
-            head = f"{self.path}:{self.line}"
-            return f"{head}:{self.column}{text[len(head):]}"
-        return text
-
-
 class LibraryError(CrossrateError):
     """A library file is invalid; .problems lists every problem found (all at once)."""
 
-    def __init__(self, problems: list[Problem]):
+    def __init__(self, problems: "list[Problem]"):
         self.problems = list(problems)
         super().__init__("\n".join(str(p) for p in self.problems))
 
@@ -109,3 +77,13 @@ class InputFileError(CrossrateError):
 class ArgumentError(CrossrateError, TypeError):
     """A Python API function was given an argument of the wrong type, or a couple position out of range;
     the message names the argument and what was expected."""
+
+
+def __getattr__(name: str):
+    """Problem and ColumnProblem, from crossrate.problem on first use: `from crossrate.errors import Problem`
+    stays the way to name them, while a command that meets no problem never defines them (see there)."""
+    if name in ("Problem", "ColumnProblem"):
+        from . import problem
+
+        return getattr(problem, name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")

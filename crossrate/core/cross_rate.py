@@ -23,7 +23,9 @@ from .screened_debye_table import bjerrum_length, screened_ln_factor
 from .work_terms import debye_kappa, work_term
 
 
-@dataclass(frozen=True)
+# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
+# raised); compared by identity, and two methods fewer to define at import (a cold start).
+@dataclass(frozen=True, eq=False)
 class CrossRateArrays:
     """Everything computed for a set of pairs. Energies J/mol, logs of rates ln(M^-1 s^-1)."""
 

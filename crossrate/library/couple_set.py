@@ -9,22 +9,17 @@ from typing import TYPE_CHECKING
 if TYPE_CHECKING:
     import numpy as np
 
+    from .shadowing import Shadowing
+
 from ..core.constants import ANGSTROM, KJ
 from ..core.potential_scales import ScaleRegistry
 from ..errors import ArgumentError, UnknownCoupleError
-from .couple import Couple, Origin
+from .couple import Couple
 
 
-@dataclass(frozen=True)
-class Shadowing:
-    """Couple `couple_id` from `hidden` is replaced by the one from `winner` (a later layer)."""
-
-    couple_id: str
-    hidden: Origin
-    winner: Origin
-
-
-@dataclass(frozen=True)
+# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
+# raised); compared by identity, and two methods fewer to define at import (a cold start).
+@dataclass(frozen=True, eq=False)
 class CoupleArrays:
     """Column arrays over the couples of a set, in set order, SI units.
 

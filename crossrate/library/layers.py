@@ -19,17 +19,21 @@ scale key defined twice with different definitions is refused. Files are read th
 cache of load_cache (a repeat load of an unchanged file skips parsing and validation).
 """
 
+from __future__ import annotations
+
 import os
 from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING
 
 from ..core.potential_scales import PotentialScale, ScaleRegistry
-from ..errors import LibraryError, Problem
-from .couple_set import CoupleSet, Shadowing
+from ..errors import LibraryError
+from .couple_set import CoupleSet
 from .load_cache import LoadedLibrary, read_library_cached
 
 if TYPE_CHECKING:
+    from ..errors import Problem
+    from .shadowing import Shadowing
     from .toml_reader import LibraryFile
 
 LAYERS = ("bundled", "demo", "group", "personal", "cli")
@@ -79,6 +83,9 @@ def read_config(path: Path | None = None) -> dict:
     except FileNotFoundError:
         return {}
     except (OSError, UnicodeDecodeError) as exc:
+        # here, not at import: a cold start that meets no problem never defines the class (crossrate.problem)
+        from ..errors import Problem
+
         raise LibraryError([Problem(str(path), None, None, None, f"cannot be read ({exc}); expected a UTF-8 "
                                     "TOML config file")]) from None
     # here, not at import: a cache hit with no config file parses no TOML (cold start)
@@ -100,6 +107,8 @@ def read_config(path: Path | None = None) -> dict:
         v = raw[key]
         items = v if isinstance(v, list) else [v]
         if not items or not all(isinstance(x, str) and x for x in items):
+            from ..errors import Problem
+
             line = next((i for i, ln in enumerate(text.split("\n"), 1) if ln.lstrip().startswith(key)), None)
             raise LibraryError([Problem(str(path), line, None, key, "expected a file path in quotes "
                                         '(or a list of them, e.g. ["/srv/group/couples.toml"])')])
@@ -147,13 +156,15 @@ def layer_files(extra_paths=(), bundled: bool = True, group: bool = True, person
     return out
 
 
-def scale_conflicts(lf: "LibraryFile | LoadedLibrary", merged: dict[str, tuple[PotentialScale, str]]) -> list[Problem]:
+def scale_conflicts(lf: LibraryFile | LoadedLibrary, merged: dict[str, tuple[PotentialScale, str]]) -> list[Problem]:
     """Problems for each scale key of lf that merged (key -> (scale, defining file)) defines differently."""
     problems = []
     for key, sc in lf.scales.items():
         if key in merged:
             prev, where = merged[key]
             if (prev.relative_to, prev.offset_V) != (sc.relative_to, sc.offset_V):
+                from ..errors import Problem
+
                 if isinstance(lf, LoadedLibrary):
                     line = lf.scale_line(key)
                 else:
@@ -200,6 +211,8 @@ def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = Tru
         seen.add(real)
         if not lf_spec.path.exists():
             if lf_spec.must_exist:
+                from ..errors import Problem
+
                 problems.append(Problem(str(lf_spec.path), None, None, None,
                                         f"no such file ({lf_spec.why}); expected a library TOML file there"))
             continue
@@ -220,6 +233,8 @@ def load_layered_partial(extra_paths=(), bundled: bool = True, group: bool = Tru
         for c in lf.couples:
             prev = couples.get(c.id)
             if prev is not None:
+                from .shadowing import Shadowing  # here: only a layer that shadows another needs it
+
                 shadowed.append(Shadowing(c.id, prev.origin, c.origin))
             couples[c.id] = c
     return CoupleSet(

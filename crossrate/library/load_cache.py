@@ -37,7 +37,7 @@ CACHE_LAYOUT = 1
 NO_CACHE_ENV = "CROSSRATE_NO_CACHE"
 #: Files whose content the validation result depends on (besides the library file itself).
 _CODE_DIRS = ("library",)
-_CODE_FILES = ("errors.py", "core/potential_scales.py", "core/solvents.py", "core/constants.py")
+_CODE_FILES = ("errors.py", "problem.py", "core/potential_scales.py", "core/solvents.py", "core/constants.py")
 _DATA_DIR = "core/data"
 _SUFFIX = ".pickle"
 
@@ -80,20 +80,29 @@ def cache_enabled() -> bool:
 
 @lru_cache(maxsize=1)
 def code_fingerprint() -> str:
-    """sha256 over the sources and data tables validation depends on, and the Python version."""
-    root = Path(__file__).resolve().parents[1]
+    """sha256 over the Python version and, for each source and data table the validation depends on, its name,
+    inode, size, and modification and status-change times (ns).
+
+    Not over their content: hashing some 350 kB of source cost every cold command about 2 ms. Any change to
+    one of these files is a write, which sets both times (a tool that restores the modification time, such
+    as cp -p or tar, cannot restore the status-change time), and a reinstall makes new files (new inodes).
+    """
+    root = os.path.dirname(os.path.dirname(os.path.realpath(__file__)))
     files = []
-    for d in _CODE_DIRS:
-        files += sorted((root / d).glob("*.py"))
-    files += [root / f for f in _CODE_FILES]
-    files += sorted((root / _DATA_DIR).glob("*.csv"))
+    for folder, suffix in [(d, ".py") for d in _CODE_DIRS] + [(_DATA_DIR, ".csv")]:
+        try:
+            names = sorted(n for n in os.listdir(os.path.join(root, folder)) if n.endswith(suffix))
+        except OSError:
+            names = ["<missing>"]
+        files += [f"{folder}/{n}" for n in names]
+    files += _CODE_FILES
     h = hashlib.sha256(f"{CACHE_LAYOUT} {sys.version} {pickle.HIGHEST_PROTOCOL}".encode())
     for f in files:
-        h.update(f.name.encode() + b"\0")
         try:
-            h.update(f.read_bytes())
+            st = os.stat(os.path.join(root, f))
+            h.update(f"{f} {st.st_ino} {st.st_size} {st.st_mtime_ns} {st.st_ctime_ns}\n".encode())
         except OSError:
-            h.update(b"<missing>")
+            h.update(f"{f} <missing>\n".encode())
     return h.hexdigest()
 
 

@@ -13,7 +13,7 @@ from .carried_potentials import potentials_at
 from .conditions import Conditions
 from .couple_lambda import lambda_columns
 from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
-from .results import PredictionTable
+from .prediction_table import PredictionTable
 from .self_exchange import self_exchange_at
 from .uncertainty import DEFAULT_K_DIFF_LOG10_SD
 

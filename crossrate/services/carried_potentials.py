@@ -36,7 +36,9 @@ T_TOLERANCE_K = 1e-6
 I_TOLERANCE_M = 1e-9
 
 
-@dataclass(frozen=True)
+# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
+# raised); compared by identity, and two methods fewer to define at import (a cold start).
+@dataclass(frozen=True, eq=False)
 class PotentialsAt:
     """Effective potentials (V on each couple's root scale) of couples idx at target conditions.
 

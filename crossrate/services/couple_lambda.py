@@ -30,7 +30,9 @@ LAMBDA_IN_NONE, LAMBDA_IN_FIELD, LAMBDA_IN_BONDS = 0, 1, 2
 KAPPA_ADIABATIC, KAPPA_FIELD, KAPPA_DEFAULT = 0, 1, 2
 
 
-@dataclass(frozen=True)
+# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
+# raised); compared by identity, and two methods fewer to define at import (a cold start).
+@dataclass(frozen=True, eq=False)
 class LambdaColumns:
     """Columns over the couples of a set (set order).
 

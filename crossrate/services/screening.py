@@ -16,7 +16,8 @@ from ..library.couple_set import CoupleSet
 from .arguments import require_conditions, require_couple_set
 from .batch_prediction import predict_many
 from .conditions import Conditions
-from .results import PredictionTable, _Record, json_safe
+from .prediction_table import PredictionTable
+from .results import _Record, json_safe
 from .self_exchange import self_exchange_at
 
 ROLES = ("oxidant", "reductant")

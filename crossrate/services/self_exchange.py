@@ -58,7 +58,9 @@ METHOD_NAMES = (
 _LN10 = float(np.log(10.0))
 
 
-@dataclass(frozen=True)
+# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
+# raised); compared by identity, and two methods fewer to define at import (a cold start).
+@dataclass(frozen=True, eq=False)
 class SelfExchangeAt:
     """ln k_ii at target conditions for an array of couple indices.
 

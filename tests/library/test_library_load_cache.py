@@ -135,3 +135,31 @@ def test_cache_can_be_turned_off(cache_home, base_file, monkeypatch):
     read_library_cached(base_file)
     assert not read_library_cached(base_file).from_cache
     assert _entries() == []
+
+
+def test_a_change_to_the_validating_code_gives_another_key(tmp_path, monkeypatch):
+    # The code's fingerprint is taken from each file's identity (inode, size, modification and status-change
+    # times), not its content: an edit of the same size whose modification time is put back (cp -p, tar)
+    # still gives another key, because a write always sets the status-change time.
+    import time
+
+    from crossrate.library import load_cache
+
+    code = tmp_path / "validation_rule.py"
+    code.write_text("LIMIT = 0.5\n")
+    monkeypatch.setattr(load_cache, "_CODE_FILES", (str(code),))  # an absolute path: joined as it is
+    load_cache.code_fingerprint.cache_clear()
+    before = load_cache.code_fingerprint()
+    assert load_cache.code_fingerprint() == before  # stable while nothing changes
+    st = code.stat()
+    time.sleep(0.05)  # file times tick at the kernel's clock (a few ms)
+    code.write_text("LIMIT = 0.6\n")
+    os.utime(code, ns=(st.st_atime_ns, st.st_mtime_ns))
+    assert code.stat().st_size == st.st_size and code.stat().st_mtime_ns == st.st_mtime_ns
+    load_cache.code_fingerprint.cache_clear()
+    assert load_cache.code_fingerprint() != before
+    code.unlink()
+    load_cache.code_fingerprint.cache_clear()
+    assert load_cache.code_fingerprint() not in (before, "")
+    monkeypatch.undo()
+    load_cache.code_fingerprint.cache_clear()
