@@ -8,13 +8,14 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical, VerticalScroll
 from textual.screen import Screen
-from textual.widgets import ContentSwitcher, Footer, Input, Static
+from textual.widgets import ContentSwitcher, Input, Static
 
 from ...errors import CrossrateError
 from ..widgets.couple_detail import CoupleDetail
 from ..widgets.couple_table import CoupleTable
 from ..widgets.field_input import FieldInput
 from ..widgets.pair_bar import PairBar
+from ..widgets.quiet_footer import QuietFooter
 from ..widgets.view_tabs import VIEWS, ViewTabs
 from .workbench_editing import WorkbenchEditing
 from .workbench_electrode import WorkbenchElectrode
@@ -74,7 +75,7 @@ class WorkbenchScreen(
                     with VerticalScroll(id="detail-scroll"):
                         yield CoupleDetail("Loading the library...", id="detail", markup=False)
         yield Static("", id="status", markup=False)
-        yield Footer()
+        yield QuietFooter()
 
     def on_mount(self) -> None:
         self.query_one(ViewTabs).show("couples", self.unit)
