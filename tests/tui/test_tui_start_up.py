@@ -1,5 +1,7 @@
-"""Views 2 to 7 are built the first time they are opened (the first frame holds the couples view alone), and
-a view key works on its first press: alone, in a burst with other keys, or before the library has loaded."""
+"""What start-up leaves for later still works. Views 2 to 7 are built the first time they are opened (the first
+frame holds the couples view alone), and a view key works on its first press: alone, in a burst with other
+keys, or before the library has loaded. The footer, rebuilt once per refresh, shows the keys of where the
+focus is now."""
 
 from tui_fixtures import burst, run_async, settle, small_couples
 from tui_fixtures import ready_workbench as _ready
@@ -63,3 +65,21 @@ async def test_a_view_key_pressed_before_the_library_has_loaded_works():
         await settle(pilot)
         assert screen.view == "curve" and _built(screen) == ["curve"]
         assert "[3 rate curve]" in screen_text(app)
+
+
+@run_async
+async def test_the_footer_follows_the_focus():
+    app = CrossrateApp(couple_set=CoupleSet(small_couples()))
+    async with app.run_test(size=(100, 24)) as pilot:
+        await _ready(pilot)
+        await settle(pilot)  # the footer's keys are rebuilt after a refresh
+        footer = screen_text(app).splitlines()[-1]
+        assert "o oxidant" in footer and "/ search" in footer
+        await pilot.press("slash")  # into the filter field: the table's keys are text there
+        await pilot.pause()
+        footer = screen_text(app).splitlines()[-1]
+        assert "oxidant" not in footer and "search" not in footer and "^q quit" in footer
+        burst(app, ["escape", "slash", "escape"])  # three binding changes before one refresh
+        await settle(pilot)
+        footer = screen_text(app).splitlines()[-1]
+        assert "o oxidant" in footer and "/ search" in footer
