@@ -15,7 +15,9 @@ with no inverted region (held at its top past -dG0 = lambda). A bimolecular seri
 carries the diffusion limit, k_obs = (1/k_act + 1/k_D)^-1; an intramolecular one (column k_intra, s^-1) has
 none. The model with the lowest AIC is the one reported; lambda's 95 % interval (profile likelihood or
 bootstrap) spans any model within Delta AIC < 2, and is given as a one-sided bound, or none, when the data
-do not determine lambda. The inverted-region test is made under the favoured model.
+do not determine lambda. lambda_s and lambda_v come with 95 % intervals and are called separately determined
+only when the semiclassical model is favoured and each interval lies within 10 % of its value. The
+inverted-region test is made under the favoured model.
 CSV columns: dG0_kJ_per_mol or dG0_eV (negative = downhill), k_obs or k_intra; optional log10_sd, label.
 """
 

@@ -42,7 +42,7 @@ from .series_evidence import (
 )
 from .series_intervals import best_fit, bootstrap_interval, covariance, profile_interval
 from .series_models import LAMBDA_BOUNDS_KJ, LN10, MODEL_KEYS, MODEL_TITLES, Problem, SeriesModel
-from .series_split import lambda_split, split_statement
+from .series_split import semiclassical_split, split_statement
 
 #: Floor on the estimated scatter of log10 k when the file gives no SDs (+-12 %; common practice).
 MIN_LOG10_SD = 0.05
@@ -191,11 +191,10 @@ def _check_options(series, diffusion, k_diff, interval, hbar_omega_cm1):
     return kind, diffusion
 
 
-def _model_fit(key, prob, res, s2, aic, best_aic, weight, lam95, method, favoured):
+def _model_fit(key, prob, res, s2, aic, best_aic, weight, lam95, method, split):
     cov = covariance(res, s2)
     se = np.sqrt(np.clip(np.diag(cov), 0.0, None))
     core, lkd = prob.split(res.x)
-    split = lambda_split(float(res.x[0]), float(res.x[1]), cov[:2, :2], favoured) if key == "semiclassical" else None
     return ModelFit(
         model=key, title=MODEL_TITLES[key], n_params=prob.n_params,
         lambda_kJ_per_mol=float(res.x[0]), lambda_se=float(se[0]), lambda_95=lam95, interval_method=method,
@@ -282,6 +281,8 @@ def fit_series(
     w = {k: math.exp(-(aic[k] - aic[best]) / 2.0) for k in keys}
     wsum = sum(w.values())
     fits = {}
+    split = (semiclassical_split(probs["semiclassical"], res["semiclassical"], s2, best == "semiclassical",
+                                 interval == "profile") if "semiclassical" in probs else None)
     for k in keys:
         if k != best:
             lam95, method = _wald_interval(res[k], s2), "wald"
@@ -292,7 +293,8 @@ def fit_series(
             lam95 = bootstrap_interval(probs[k], res[k].x, sigma_used, int(bootstrap), seed,
                                        progress if k == best else None)
             method = "bootstrap"
-        fits[k] = _model_fit(k, probs[k], res[k], s2, aic[k], aic[best], w[k] / wsum, lam95, method, k == best)
+        fits[k] = _model_fit(k, probs[k], res[k], s2, aic[k], aic[best], w[k] / wsum, lam95, method,
+                             split if k == "semiclassical" else None)
     fav = fits[best]
     # The reported interval: the favoured model's (profile or bootstrap), widened to cover the Wald interval
     # of any model the data cannot tell apart from it. A semiclassical fit with no quantized part (phi ~ 0)
@@ -365,18 +367,16 @@ def fit_series(
         scatter="given" if given else "estimated", log10_sd_used=sd_used, delta_aic=delta_aic,
         model_comparison=model_comparison([fits[k] for k in keys], best),
         inverted_region_supported=supported, evidence=evidence, models=tuple(fits[k] for k in keys),
-        points=points, warnings=tuple(warnings), **_split_fields(probs, res, s2, best),
+        points=points, warnings=tuple(warnings), **_split_fields(split, best),
     )
 
 
-def _split_fields(probs, res, s2, best):
+def _split_fields(split, best):
     """The SeriesFit fields on lambda_s and lambda_v (the semiclassical fit's split, when it was fitted)."""
-    if "semiclassical" not in probs:
+    if split is None:
         return {"lambda_split_statement": "lambda_s and lambda_v are not separately determined: too few points "
                                           "for the semiclassical model"}
-    r = res["semiclassical"]
     favoured = best == "semiclassical"
-    split = lambda_split(float(r.x[0]), float(r.x[1]), covariance(r, s2)[:2, :2], favoured)
     return {"lambda_s_95": split.lambda_s_95 if favoured else None,
             "lambda_v_95": split.lambda_v_95 if favoured else None,
             "lambda_split_determined": split.determined, "lambda_split_statement": split_statement(split, favoured)}
