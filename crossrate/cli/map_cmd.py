@@ -1,7 +1,12 @@
 """`crossrate map`: log10 k_obs for every ordered pair of loaded couples that share a medium."""
 
 
-from .common_options import add_condition_options, add_format_option, add_library_option
+from .common_options import (
+    add_condition_options,
+    add_format_option,
+    add_library_option,
+    add_rate_model_options,
+)
 from .help_format import CAUTION
 
 EPILOG = (
@@ -9,7 +14,10 @@ EPILOG = (
     "the pair cannot be computed: different media or potential scales, different ionic strengths without\n"
     "--ionic-strength, or no self-exchange data. The diagonal is each couple's self-exchange rate at these\n"
     "conditions. --medium keeps only couples measured in that medium (with --allow-mixed-media: computes every\n"
-    "couple in it).\n\n" + CAUTION
+    "couple in it).\n"
+    "--model semiclassical gives every cell the quantum factor of `crossrate predict --model semiclassical`\n"
+    "(the same numbers, to 1e-5 in ln k); the JSON says which model was used (rate_model), and with the CSV\n"
+    "a line on standard error says so.\n\n" + CAUTION
 )
 
 
@@ -23,6 +31,7 @@ def register(subparsers) -> None:
     )
     add_library_option(p)
     add_condition_options(p)
+    add_rate_model_options(p)
     p.add_argument("--tag", default=None, metavar="TAG", help="only couples carrying this tag")
     add_format_option(p, choices=("csv", "json"), default="csv")
     p.add_argument("--out", default=None, metavar="FILE", help="write to FILE instead of standard output")
@@ -62,6 +71,10 @@ def run(args) -> int:
               file=sys.stderr)
     else:
         sys.stdout.write(text)
+    if result.rate_model != "classical" and args.format != "json":
+        from ..services.rate_model import model_line
+
+        print(f"crossrate map: {model_line(result.semiclassical)}", file=sys.stderr)
     if result.E_not_carried:
         # The CSV matrix has no place for it: say it beside, on stderr (the JSON has E_not_carried).
         print(f"crossrate map: E was not carried for {', '.join(result.E_not_carried)} (measured in another medium, "

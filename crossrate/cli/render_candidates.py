@@ -25,7 +25,8 @@ def run_candidates(args, couple_set, conditions) -> int:
     if args.format == "json":
         data = {"target": res.target, "role": res.role, "medium": res.medium, "temperature_K": res.temperature_K,
                 "ionic_strength_M": res.ionic_strength_M, "candidate_scale": res.scale,
-                "candidates": res.candidates, "not_computable": res.not_computable, "rows": res.records()}
+                "candidates": res.candidates, "not_computable": res.not_computable, "rate_model": res.rate_model,
+                "semiclassical": res.semiclassical, "rows": res.records()}
         sys.stdout.write(json.dumps(data, indent=2, allow_nan=False) + "\n")
         return 0
     if args.format == "csv":
@@ -48,6 +49,10 @@ def run_candidates(args, couple_set, conditions) -> int:
     out.append(f"{len(res.partner)} fastest of {res.candidates} candidates shown"
                + (f"; {res.not_computable} not computable" if res.not_computable else "")
                + "; k_obs in M^-1 s^-1; candidates' values taken at these conditions")
+    if res.rate_model != "classical":
+        from ..services.rate_model import model_line
+
+        out.append(model_line(res.semiclassical))
     out += ["", CAUTION]
     print("\n".join(out))
     return 0

@@ -35,6 +35,10 @@ def count_line(result) -> str:
         text += f" {result.not_computable} left out as not computable: {why}."
     else:
         text += " None left out as not computable."
+    if result.rate_model != "classical":
+        from ..services.rate_model import model_line
+
+        text += f" {model_line(result.semiclassical)[0].upper()}{model_line(result.semiclassical)[1:]}."
     if result.E_not_carried:
         text += (f" E was not carried for {', '.join(result.E_not_carried)}: measured in another medium, used as "
                  "given (--allow-E-other-medium).")
@@ -162,5 +166,7 @@ def screen_json(result) -> dict:
         "not_computable_reasons": {reason: n for reason, n in result.not_computable_reasons},
         "filtered_out": result.filtered_out,
         "E_not_carried": list(result.E_not_carried),
+        "rate_model": result.rate_model,
+        "semiclassical": result.semiclassical,
         "results": result.records(),
     }

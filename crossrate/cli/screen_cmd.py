@@ -6,6 +6,7 @@ from .common_options import (
     add_condition_options,
     add_format_option,
     add_library_option,
+    add_rate_model_options,
     finite_float,
     positive_float,
 )
@@ -14,7 +15,9 @@ from .help_format import CAUTION
 EPILOG = (
     "--medium both sets the medium of the prediction and keeps only partners measured in it. "
     "Pairs that cannot be computed (different media or potential scales, different ionic strengths without "
-    "--ionic-strength, no self-exchange data) are left out and counted.\n\n" + CAUTION
+    "--ionic-strength, no self-exchange data) are left out and counted. --model semiclassical ranks by the\n"
+    "rates of `crossrate predict --model semiclassical` (a line under the table, the JSON's rate_model and, with\n"
+    "the CSV, the line on standard error say which model was used).\n\n" + CAUTION
 )
 
 
@@ -48,6 +51,7 @@ def register(subparsers) -> None:
     )
     add_library_option(p)
     add_condition_options(p)
+    add_rate_model_options(p)
     f = p.add_argument_group("filters")
     f.add_argument("--min-k", type=positive_float, default=None, metavar="K",
                    help="keep pairs with k_obs >= K (M^-1 s^-1)")

@@ -286,6 +286,31 @@ def _sum_levels(x, ls, hw, RT, S, nu, hot):
 
 
 
+def ln_skellam(n, mu1, mu2):
+    """ln P(N1 - N2 = n), N1 ~ Poisson(mu1), N2 ~ Poisson(mu2) (the Skellam distribution; with mu1 = S(nu + 1)
+    and mu2 = S nu the weight of a net change of n quanta in the mode, module docstring). n: integers; mu1,
+    mu2 > 0 (broadcast). Small sqrt(mu1 mu2) by the short inner sum, large by the Bessel form (the same two
+    paths as mlj_ln_k)."""
+    n, mu1, mu2 = np.broadcast_arrays(np.asarray(n, dtype=np.int64), np.asarray(mu1, dtype=float),
+                                      np.asarray(mu2, dtype=float))
+    shape = n.shape
+    n, mu1, mu2 = n.reshape(-1, 1), mu1.reshape(-1, 1), mu2.reshape(-1, 1)
+    out = np.empty(n.shape)
+    hot = (np.sqrt(mu1 * mu2) >= 1.0)[:, 0]
+    if np.any(~hot):
+        c = ~hot
+        m1, m2 = mu1[c], mu2[c]
+        out[c] = _ln_skellam(n[c], m1, m2, np.log(m1), np.log(m2), _inner_terms(m1, m2))
+    if np.any(hot):
+        out[hot] = _ln_skellam_bessel(n[hot], mu1[hot], mu2[hot])
+    return out.reshape(shape)
+
+
+def ln_factorial(m):
+    """ln m! for integer arrays m >= 0 (a cumulated table of logs)."""
+    return _ln_factorial(m)
+
+
 def classical_ln_k(dG0_J_per_mol, lambda_J_per_mol, T_K, ln_A=0.0):
     """ln k = ln A - (lambda + Delta G deg)^2 / (4 lambda RT) (Marcus quadratic form), J/mol and K in."""
     lam = np.asarray(lambda_J_per_mol, dtype=float)
@@ -331,12 +356,32 @@ def mlj_minus_dG0_at_maximum(lambda_s_J_per_mol, lambda_v_J_per_mol, hbar_omega_
     return 0.5 * (a + b)
 
 
+def couple_inner_lambda(lambda_ii_J, lambda_in_J, default_fraction, max_fraction=0.95):
+    """The inner (high-frequency) part of each couple's self-exchange lambda_ii, J/mol: lambda_in where given
+    (NaN = not given: default_fraction x lambda_ii), held to [0, max_fraction x lambda_ii] (the inner part
+    cannot exceed the whole). Arrays broadcast; fractions dimensionless."""
+    lam = np.asarray(lambda_ii_J, dtype=float)
+    v = np.where(np.isfinite(lambda_in_J), lambda_in_J, default_fraction * lam)
+    return np.clip(v, 0.0, max_fraction * lam)
+
+
+def pair_hbar_omega(lambda_v11_J, lambda_v22_J, hbar_omega1_J, hbar_omega2_J):
+    """The effective mode energy of a cross reaction, J/mol: the two couples' hbar omega (J/mol) weighted by
+    their inner lambdas lambda_v,ii (J/mol): (lambda_v11 hw1 + lambda_v22 hw2) / (lambda_v11 + lambda_v22), so
+    that the couple whose high-frequency mode carries more of the reorganization sets more of the pair's
+    mode (one effective mode standing for two, common practice). Equal weights where both are 0."""
+    v1, v2 = np.asarray(lambda_v11_J, dtype=float), np.asarray(lambda_v22_J, dtype=float)
+    tot = v1 + v2
+    w1 = np.where(tot > 0, v1 / np.where(tot > 0, tot, 1.0), 0.5)
+    return w1 * np.asarray(hbar_omega1_J, dtype=float) + (1.0 - w1) * np.asarray(hbar_omega2_J, dtype=float)
+
+
 def pair_inner_lambda(lambda11_J, lambda22_J, lambda_in11_J, lambda_in22_J, default_fraction, max_fraction=0.95):
     """The high-frequency (inner) part of a cross reaction's lambda12, from the couples' inner parts.
 
-    lambda_v,ii = lambda_in,ii where given (NaN = not given: default_fraction x lambda_ii), held to at most
-    max_fraction x lambda_ii (the inner part cannot exceed the whole); lambda_v12 = (lambda_v11 +
-    lambda_v22)/2, the same additivity rule as lambda12 = (lambda11 + lambda22)/2 (Marcus cross relation).
+    lambda_v,ii from couple_inner_lambda (lambda_in where given, else default_fraction x lambda_ii, held to at
+    most max_fraction x lambda_ii); lambda_v12 = (lambda_v11 + lambda_v22)/2, the same additivity rule as
+    lambda12 = (lambda11 + lambda22)/2 (Marcus cross relation).
 
     Args: self-exchange lambdas and inner parts in J/mol (arrays broadcast); fractions dimensionless.
     Returns: (lambda_v12 J/mol, clipped: bool array, any couple's inner part cut to max_fraction).
@@ -345,6 +390,6 @@ def pair_inner_lambda(lambda11_J, lambda22_J, lambda_in11_J, lambda_in22_J, defa
     v11 = np.where(np.isfinite(lambda_in11_J), lambda_in11_J, default_fraction * l11)
     v22 = np.where(np.isfinite(lambda_in22_J), lambda_in22_J, default_fraction * l22)
     clipped = (v11 > max_fraction * l11) | (v22 > max_fraction * l22)
-    v11 = np.clip(v11, 0.0, max_fraction * l11)
-    v22 = np.clip(v22, 0.0, max_fraction * l22)
+    v11 = couple_inner_lambda(l11, lambda_in11_J, default_fraction, max_fraction)
+    v22 = couple_inner_lambda(l22, lambda_in22_J, default_fraction, max_fraction)
     return 0.5 * (v11 + v22), clipped

@@ -14,6 +14,7 @@ from .conditions import Conditions
 from .couple_lambda import lambda_columns
 from .pair_groups import PairGroup, carry_grouped, condition_groups, linear_sd_grouped
 from .prediction_table import PredictionTable
+from .rate_model import apply_to_pairs, grid_model
 from .self_exchange import self_exchange_at
 from .uncertainty import DEFAULT_K_DIFF_LOG10_SD
 
@@ -118,6 +119,9 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
     problem[no_rate & (problem == "")] = "no self-exchange rate or reorganization energy"
 
     def run(dE1=0.0, dE2=0.0, d1=0.0, d2=0.0):
+        return apply_to_pairs(classical(dE1, dE2, d1, d2), cs, ox, red, cond, cond.diffusion)
+
+    def classical(dE1, dE2, d1, d2):
         return cross_rate(
             E_ox + dE1,
             E_red + dE2,
@@ -156,7 +160,7 @@ def evaluate_pairs(cs: CoupleSet, ox_idx, red_idx, conditions: Conditions | None
                         for g in groups
                     ]
                 sd = linear_sd_grouped(cs, ox, red, groups, lnk_by_group, (sE1, sE2, sd_ox, sd_red), T, ln_Z,
-                                       cond.diffusion, E_by_group) / LN10
+                                       cond.diffusion, E_by_group, grid_model(cs, np.arange(len(cs)), cond)) / LN10
             else:
                 var = np.zeros(n)
                 for k, (h, s) in enumerate(((1e-4, sE1), (1e-4, sE2), (1e-3, sd_ox), (1e-3, sd_red))):
@@ -180,12 +184,13 @@ def predict_many(
 ) -> PredictionTable:
     """Predict k12 for many pairs (ids or integer positions; equal lengths), vectorized.
 
-    Same model as predict() (Marcus cross relation, work terms, diffusion cap); uncertainty is the
+    Same model as predict() (Marcus cross relation, work terms, diffusion cap; the semiclassical quantum
+    factor with conditions.rate_model='semiclassical'); uncertainty is the
     first-order (linear) SD of log10 k_obs from E, k_self and k_D (DEFAULT_K_DIFF_LOG10_SD, with the cap on).
     Pairs that cannot be computed are NaN with a reason.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions, classical_only="predict_many")
+    require_conditions(conditions)
     ox = _as_index(couple_set, oxidants, "oxidants")
     red = _as_index(couple_set, reductants, "reductants")
     if ox.shape != red.shape:

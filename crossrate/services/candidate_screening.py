@@ -7,7 +7,9 @@ scale (`scale`, related to the target's root scale), each candidate is adiabatic
 self-exchange rate is k_self as given, or from lambda_total by the Marcus self-exchange relation
 k_ii = Z exp(-(w_ii + lambda/4)/RT) with its work term w_ii. The target is carried to the conditions as in
 predict() (services.self_exchange, services.carried_potentials). All pairs go through the core's
-vectorized Marcus cross relation with work terms and the diffusion cap (core.cross_rate) in one call.
+vectorized Marcus cross relation with work terms and the diffusion cap (core.cross_rate) in one call; under
+the semiclassical model k_act carries the quantum factor of predict() (services.rate_model.apply_inner), each
+candidate's inner part of lambda being the default share.
 """
 
 from dataclasses import dataclass
@@ -24,6 +26,7 @@ from ..library.candidate_table import CandidateTable
 from ..library.couple_set import CoupleSet
 from .conditions import Conditions
 from .couple_lambda import lambda_columns
+from .rate_model import apply_inner, model_record
 from .self_exchange import self_exchange_at
 
 LN10 = float(np.log(10.0))
@@ -47,6 +50,9 @@ class CandidateScreen:
     log10_k_obs: tuple[float, ...]
     dG0_kJ_per_mol: tuple[float, ...]
     diffusion_controlled: tuple[bool, ...]
+    #: 'classical' or 'semiclassical' (services.rate_model; the candidates' inner part is the default share).
+    rate_model: str = "classical"
+    semiclassical: dict | None = None
 
     def records(self) -> list[dict]:
         return [{"partner": p, "log10_k_obs": k, "dG0_kJ_per_mol": g, "diffusion_controlled": d}
@@ -107,6 +113,11 @@ def screen_candidates(couple_set: CoupleSet, target: str, role: str, table: Cand
     with np.errstate(invalid="ignore", over="ignore"):
         res = cross_rate(one[0], two[0], one[1], one[2], two[1], two[2], one[3], two[3], one[4], two[4], T, I, eps,
                          visc, ln_Z, diffusion=cond.diffusion, ln_kappa11=one[5], ln_kappa22=two[5])
+        if cond.rate_model == "semiclassical":
+            # The target's own lambda_in (or bonds); each candidate's inner part is the default share of its lambda.
+            lin_t = float(lambda_columns(couple_set).lambda_in_J[ti[0]])
+            lin = (lin_t, np.nan) if role == "oxidant" else (np.nan, lin_t)
+            res = apply_inner(res, lin[0], lin[1], cond, cond.diffusion)
     log10_k = np.broadcast_to(np.asarray(res.ln_k_obs, dtype=float) / LN10, (len(table),))
     finite = np.isfinite(log10_k)
     keyed = np.where(finite, log10_k, -np.inf)
@@ -116,6 +127,10 @@ def screen_candidates(couple_set: CoupleSet, target: str, role: str, table: Cand
     order = order[finite[order]]
     dG0 = np.broadcast_to(np.asarray(res.dG0, dtype=float) / KJ, (len(table),))
     dc = np.broadcast_to(np.asarray(res.diffusion_controlled, dtype=bool), (len(table),))
+    record = model_record(couple_set, ti, cond)
+    if record is not None:
+        record["couples_with_default_inner"] += len(table)  # every candidate
     return CandidateScreen(target, role, medium, T, I, scale, len(table), int((~finite).sum()),
                            tuple(table.id_text(i) for i in order), tuple(float(x) for x in log10_k[order]),
-                           tuple(float(x) for x in dG0[order]), tuple(bool(x) for x in dc[order]))
+                           tuple(float(x) for x in dG0[order]), tuple(bool(x) for x in dc[order]),
+                           cond.rate_model, record)

@@ -84,7 +84,8 @@ def carry_grouped(cs: CoupleSet, ox, red, groups: list[PairGroup], T_K: float, l
     return (*out, per_group)
 
 
-def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, ln_Z, diffusion, E_by_group):
+def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, ln_Z, diffusion, E_by_group,
+                      model=None):
     """First-order SD of ln k_obs per pair by central differences (uncertainty.linear_sd, vectorized).
 
     sds: (sE1, sE2, s_lnk11, s_lnk22) per pair; ln_k_by_group: ln k_self per couple for each group;
@@ -93,6 +94,9 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     sum (in ln k12 and in ln f12), so d/dE2 = -d/dE1 and d/d ln k22 = d/d ln k11: two derivatives give
     all four slopes. The oxidant's inputs are shifted on a doubled couple list (oxidant copies first,
     reductant copies after). Returns the SD of ln k_obs (natural log) per pair.
+    model: keyword arguments of the semiclassical model (services.rate_model.grid_model; {} or None:
+    classical). Its quantum factor depends on E1 - E2 alone, but on ln k11 and ln k22 apart (a couple's default
+    inner part follows its own lambda), so the two k_self slopes are then taken one by one.
     """
     a = cs.arrays
     N = len(cs)
@@ -104,6 +108,13 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     ln_kap2 = np.concatenate([ln_kap, ln_kap]) if np.any(ln_kap != 0.0) else None
     sE = np.hypot(sds[0], sds[1])
     sK = np.hypot(sds[2], sds[3])
+    semi = {}
+    steps = ((0, STEP_E_V, sE, slice(0, N)), (1, STEP_LN_K, sK, slice(0, N)))
+    if model:
+        lam_in = np.concatenate([model["lambda_in_J"], model["lambda_in_J"]])
+        semi = {"semiclassical": model["semiclassical"], "lambda_in_J": lam_in}
+        steps = ((0, STEP_E_V, sE, slice(0, N)), (1, STEP_LN_K, sds[2], slice(0, N)),
+                 (1, STEP_LN_K, sds[3], slice(N, 2 * N)))
     for g, lnk, E_g in zip(groups, ln_k_by_group, E_by_group, strict=True):
         o, rr = ox[g.rows], red[g.rows] + N
         E2 = np.concatenate([E_g, E_g])
@@ -111,19 +122,19 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
         # k_D does not move with E or k_self: one screened-diffusion table serves the four shifted evaluations.
         table = screened_debye_table(z_ox, r, z_red, r, T_K, g.I_M, g.eps_r) \
             if diffusion and o.size >= TABLE_MIN_PAIRS else None
-        for which, h, spread in ((0, STEP_E_V, sE), (1, STEP_LN_K, sK)):
+        for which, h, spread, side in steps:
             vals = []
             for sign in (1.0, -1.0):
                 E, lk = E2, k2
                 if which == 0:
                     E = E2.copy()
-                    E[:N] += sign * h
+                    E[side] += sign * h
                 else:
                     lk = k2.copy()
-                    lk[:N] += sign * h
+                    lk[side] += sign * h
                 with np.errstate(invalid="ignore"):
                     vals.append(ln_k_obs_pairs(o, rr, E, z_ox, z_red, r, lk, T_K, g.I_M, g.eps_r,
                                                g.viscosity_Pa_s, ln_Z, diffusion=diffusion,
-                                               ln_kappa=ln_kap2, debye_table=table).ln_k_obs)
+                                               ln_kappa=ln_kap2, debye_table=table, **semi).ln_k_obs)
             var[g.rows] += ((vals[0] - vals[1]) / (2.0 * h) * spread[g.rows]) ** 2
     return np.sqrt(var)

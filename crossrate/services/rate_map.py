@@ -5,13 +5,17 @@ Pairs are computed only where predict() would compute them: both couples measure
 conditions' or, when none is given, the couples' common one) and self-exchange data for both. Every other
 cell is NaN. Couples are grouped by (medium, root scale, ionic strength) and each group is one all-pairs
 grid on the core fast path (crossrate.core.rate_grid.ln_k_obs_grid: Marcus cross relation with work terms
-in its barrier form and the Debye-Smoluchowski diffusion cap).
+in its barrier form and the Debye-Smoluchowski diffusion cap). With the semiclassical model
+(conditions.rate_model) every cell's k_act carries the quantum factor Q of predict() (services.rate_model),
+summed over vibrational levels for all pairs at once (crossrate.core.level_sum, within LEVEL_SUM_TOLERANCE
+in ln Q of predict's per-pair sum).
 """
 
 from dataclasses import dataclass, field
 
 import numpy as np
 
+from ..core.level_sum import LevelWeights
 from ..core.rate_grid import ln_k_obs_grid
 from ..core.screened_debye_table import TABLE_MIN_PAIRS, screened_debye_table
 from ..core.solvents import get_solvent
@@ -21,6 +25,7 @@ from .arguments import require_conditions, require_couple_set
 from .carried_potentials import potentials_at
 from .conditions import Conditions
 from .progress import ProgressCallback, report
+from .rate_model import grid_model, model_record
 from .results import json_safe
 from .self_exchange import self_exchange_at
 
@@ -54,6 +59,9 @@ class RateMap:
     #: "invented", "unverified" or "verified" for each couple of `ids`.
     provenance: tuple[str, ...] = ()
     E_not_carried: tuple[str, ...] = ()
+    #: 'classical' or 'semiclassical'; for the latter, semiclassical holds services.rate_model.model_record.
+    rate_model: str = "classical"
+    semiclassical: dict | None = None
 
     def __len__(self) -> int:
         return len(self.ids)
@@ -82,6 +90,8 @@ class RateMap:
                     "diffusion": self.diffusion,
                 },
                 "E_not_carried": list(self.E_not_carried),
+                "rate_model": self.rate_model,
+                "semiclassical": self.semiclassical,
                 "rows": "oxidant",
                 "columns": "reductant",
                 "log10_k_obs": self.log10_k_obs.tolist(),
@@ -123,14 +133,14 @@ def rate_map(
         ids: couple ids to include (in this order), or None for all. With conditions.medium set and
             allow_mixed_media off, only couples measured in that medium are kept.
         conditions: target conditions (temperature K, ionic strength mol/L or None for the couples' own,
-            medium, Z in M^-1 s^-1, diffusion cap).
+            medium, Z in M^-1 s^-1, diffusion cap, rate model: classical or semiclassical as in predict()).
         progress: progress(done, total) called as oxidant rows are finished (total = number of couples).
 
     Returns:
         RateMap (log10(M^-1 s^-1), NaN where not computable). Raises UnknownCoupleError, ConditionsError.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions, classical_only="the rate map")
+    require_conditions(conditions)
     cond = conditions or Conditions()
     a = couple_set.arrays
     idx = np.arange(len(couple_set), dtype=np.intp) if ids is None else couple_set.index_of(list(ids))
@@ -164,13 +174,20 @@ def rate_map(
         # One screened-diffusion table for all row blocks of this group (None at I = 0 or for small maps).
         table = screened_debye_table(a.z_ox[m], a.radius_m[m], a.z_red[m], a.radius_m[m], T, I, eps) \
             if cond.diffusion and m.size * m.size >= TABLE_MIN_PAIRS else None
+        model = grid_model(couple_set, m, cond)
+        semi = {}
+        if model:
+            # One weight table for all row blocks of the map (level_sum.LevelWeights grows as needed).
+            semi = {"semiclassical": model["semiclassical"], "level_weights": LevelWeights(T)}
         for s in range(0, m.size, ROWS_PER_STEP):
             r = slice(s, s + ROWS_PER_STEP)
+            if model:
+                semi.update(lambda_in1_J=model["lambda_in_J"][r], lambda_in2_J=model["lambda_in_J"])
             grid = ln_k_obs_grid(
                 E[r], a.z_ox[m[r]], a.z_red[m[r]], a.radius_m[m[r]], se.ln_k[ok][r],
                 E, a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok],
                 T, I, eps, visc, ln_Z, diffusion=cond.diffusion,
-                ln_kappa1=ln_kap[ok][r], ln_kappa2=ln_kap[ok], debye_table=table,
+                ln_kappa1=ln_kap[ok][r], ln_kappa2=ln_kap[ok], debye_table=table, **semi,
             )
             out[np.ix_(cols[r], cols)] = grid.ln_k_obs / LN10
             done += int(cols[r].size)
@@ -193,4 +210,6 @@ def rate_map(
         Z=float(cond.Z),
         diffusion=bool(cond.diffusion),
         E_not_carried=tuple(not_carried),
+        rate_model=cond.rate_model,
+        semiclassical=model_record(couple_set, idx, cond),
     )

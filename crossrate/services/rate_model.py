@@ -158,3 +158,77 @@ def semiclassical_summary(q: QuantumModel, res: CrossRateArrays, T_K: float, ids
         warnings.append(f"semiclassical model: hbar omega {q.hbar_omega_cm1:g} cm^-1 (the default; "
                         "--hbar-omega to change)")
     return info, warnings
+
+
+def grid_model(couple_set, members, cond):
+    """Keyword arguments of the core rate grid (crossrate.core.rate_grid) for the rate model of `cond` over the
+    couples at positions `members`: {} for the classical model; for the semiclassical one the mode
+    (level_sum.SemiclassicalMode: hbar omega, DEFAULT_INNER_FRACTION) and each couple's inner lambda_in (J/mol,
+    NaN where the couple gives neither lambda_in nor bonds). The same rule as quantum_model, per couple."""
+    if cond.rate_model != "semiclassical":
+        return {}
+    from ..core.level_sum import SemiclassicalMode
+
+    cols = lambda_columns(couple_set)
+    hw = cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1
+    return {"semiclassical": SemiclassicalMode(hw * J_PER_MOL_PER_CM1, DEFAULT_INNER_FRACTION),
+            "lambda_in_J": cols.lambda_in_J[np.asarray(members, dtype=np.intp)]}
+
+
+def model_record(couple_set, members, cond) -> dict | None:
+    """What a many-pair result (map, screen) says of its semiclassical model: hbar omega (cm^-1) and whether it
+    was the default, the default inner fraction and how many of the couples at positions `members` used it
+    (no lambda_in or bonds). None for the classical model."""
+    if cond.rate_model != "semiclassical":
+        return None
+    cols = lambda_columns(couple_set)
+    idx = np.asarray(members, dtype=np.intp)
+    return {
+        "hbar_omega_cm1": float(cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1),
+        "hbar_omega_default": cond.hbar_omega_cm1 is None,
+        "inner_default_fraction": DEFAULT_INNER_FRACTION,
+        "couples_with_default_inner": int((~np.isfinite(cols.lambda_in_J[idx])).sum()),
+    }
+
+
+def model_line(record: dict | None) -> str:
+    """One sentence naming the model of a many-pair result (map, screen), from model_record."""
+    if record is None:
+        return "model: classical (Marcus cross relation)"
+    hw = f"hbar omega {record['hbar_omega_cm1']:g} cm^-1" + (" (the default)" if record["hbar_omega_default"] else "")
+    text = f"model: semiclassical (cross relation x quantum factor Q, Q = 1 at dG0' = 0; {hw}"
+    n = record["couples_with_default_inner"]
+    if n:
+        text += (f"; inner part taken as {record['inner_default_fraction']:.0%} of lambda for {n} couple"
+                 f"{'' if n == 1 else 's'} without lambda_in or bonds")
+    return text + ")"
+
+
+def apply_to_pairs(res: CrossRateArrays, couple_set, ox, red, cond, diffusion: bool) -> CrossRateArrays:
+    """res (classical cross rates of the pairs ox[k], red[k], positions in couple_set, one temperature) with
+    k_act times the quantum factor Q of the semiclassical model, k_obs and the diffusion flag recomputed;
+    res unchanged for the classical model. The same Q as predict() (quantum_model), for all pairs at once
+    (crossrate.core.level_sum, within LEVEL_SUM_TOLERANCE in ln Q)."""
+    if cond.rate_model != "semiclassical":
+        return res
+    cols = lambda_columns(couple_set)
+    lam_in = cols.lambda_in_J
+    return apply_inner(res, lam_in[np.asarray(ox, dtype=np.intp)], lam_in[np.asarray(red, dtype=np.intp)], cond,
+                       diffusion)
+
+
+def apply_inner(res: CrossRateArrays, lambda_in11_J, lambda_in22_J, cond, diffusion: bool) -> CrossRateArrays:
+    """apply_to_pairs for pairs given by their couples' lambda_in (J/mol, NaN: the default fraction)."""
+    from ..core.level_sum import ln_q_pairs
+    from ..core.semiclassical import pair_inner_lambda
+
+    T = float(cond.temperature_K)
+    lv12, _ = pair_inner_lambda(res.lambda11, res.lambda22, lambda_in11_J, lambda_in22_J, DEFAULT_INNER_FRACTION)
+    hw = (cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1) * J_PER_MOL_PER_CM1
+    x = np.asarray(res.dG0_prime, dtype=float)
+    lam = np.broadcast_to(np.asarray(res.lambda12, dtype=float), x.shape)
+    ln_q = ln_q_pairs(x, lam, np.broadcast_to(lv12, x.shape), hw, T)
+    ln_act = np.asarray(res.ln_k_act, dtype=float) + np.where(np.isfinite(ln_q), ln_q, 0.0)
+    ln_obs = ln_k_observed(ln_act, res.ln_k_diff) if diffusion else ln_act
+    return replace(res, ln_k_act=ln_act, ln_k_obs=ln_obs,
+                   diffusion_controlled=diffusion_controlled(ln_act, res.ln_k_diff) & bool(diffusion))

@@ -1,8 +1,9 @@
 """Screening: every couple of the loaded set that can react with one target couple, ranked by k_obs.
 
 The target takes the role of oxidant (Ox_target + Red_partner) or reductant (Ox_partner + Red_target); the
-rates come from the vectorized predict_many (Marcus cross relation with work terms and the diffusion cap),
-with the first-order (linear) uncertainty of log10 k_obs.
+rates come from the vectorized predict_many (Marcus cross relation with work terms and the diffusion cap,
+times the quantum factor under the semiclassical model), with the first-order (linear) uncertainty of
+log10 k_obs.
 """
 
 from collections import Counter
@@ -17,6 +18,7 @@ from .arguments import require_conditions, require_couple_set
 from .batch_prediction import predict_many
 from .conditions import Conditions
 from .prediction_table import PredictionTable
+from .rate_model import model_record
 from .results import _Record, json_safe
 from .self_exchange import self_exchange_at
 
@@ -54,6 +56,9 @@ class ScreenResult(_Record):
     partner_provenance: tuple[str, ...] = ()
     #: Couples of the shown rows whose potential, measured in another medium, was used as given (not carried).
     E_not_carried: tuple[str, ...] = ()
+    #: 'classical' or 'semiclassical'; for the latter, semiclassical holds services.rate_model.model_record.
+    rate_model: str = "classical"
+    semiclassical: dict | None = None
 
     def __len__(self) -> int:
         return len(self.partner)
@@ -126,7 +131,8 @@ def screen(
         target: id of the target couple.
         role: 'oxidant' (target's oxidized form takes the electron from each partner's reduced form) or
             'reductant' (target's reduced form gives the electron to each partner's oxidized form).
-        conditions: target conditions (see Conditions; default 298.15 K, the couples' own I and medium).
+        conditions: target conditions (see Conditions; default 298.15 K, the couples' own I and medium; the
+            rate model, classical or semiclassical, as in predict()).
         min_k: keep pairs with k_obs >= min_k, M^-1 s^-1.
         max_dG0: keep pairs with Delta G deg <= max_dG0, kJ/mol.
         medium: keep partners measured in this medium (solvent key).
@@ -137,7 +143,7 @@ def screen(
         ScreenResult, fastest first. Raises UnknownCoupleError, ConditionsError or ScienceError.
     """
     require_couple_set(couple_set)
-    require_conditions(conditions, classical_only="screening")
+    require_conditions(conditions)
     if role not in ROLES:
         raise ConditionsError(f"role {role!r}: expected 'oxidant' or 'reductant'")
     if min_k is not None and not (np.isfinite(min_k) and min_k > 0):
@@ -189,6 +195,8 @@ def screen(
         not_computable_reasons=tuple(sorted(reasons.items())),
         filtered_out=int(ok.sum()) - int(rows.size),
         E_not_carried=_E_not_carried(couple_set, ox[rows], red[rows], cond),
+        rate_model=cond.rate_model,
+        semiclassical=model_record(couple_set, np.concatenate(([t], partners)), cond),
     )
 
 

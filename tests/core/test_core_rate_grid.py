@@ -5,7 +5,7 @@ import math
 import numpy as np
 import pytest
 
-from crossrate.core import rate_grid
+from crossrate.core import rate_grid, rate_kernel
 from crossrate.core.barrier import self_exchange_ln_k
 from crossrate.core.cross_rate import cross_rate
 from crossrate.core.rate_grid import ln_k_obs_grid, ln_k_obs_pairs
@@ -89,7 +89,7 @@ def test_grid_without_diffusion_cap():
 def test_generic_debye_path_gives_the_same(monkeypatch):
     cond = _cond(I=0.0)  # the unscreened closed form; at I > 0 the table (or the integral) is used
     ox, red = _couples(30, 7, *cond[:3]), _couples(31, 8, *cond[:3])
-    monkeypatch.setattr(rate_grid, "_SAFE_DELTA", 0.0)  # force the overflow-proof generic Debye factor
+    monkeypatch.setattr(rate_kernel, "_SAFE_DELTA", 0.0)  # force the overflow-proof generic Debye factor
     _assert_same(ln_k_obs_grid(*ox, *red, *cond, classify=True), _reference(ox, red, cond), ATOL)
 
 

@@ -143,11 +143,8 @@ def test_cli_json(lib, capsys):
     assert {"lambda_in12_kJ_per_mol", "lambda_out12_kJ_per_mol", "log10_quantum_factor"} <= set(out["semiclassical"])
 
 
-def test_classical_only_services_refuse_the_semiclassical_model(cs):
-    from crossrate.services.rate_map import rate_map
-    from crossrate.services.screening import screen
+def test_measured_check_refuses_the_semiclassical_model(cs):
+    from crossrate.services.measured_check import check_measured
 
-    with pytest.raises(ConditionsError, match="the rate map uses the classical model only"):
-        rate_map(cs, conditions=SEMI)
-    with pytest.raises(ConditionsError, match="screening uses the classical model only"):
-        screen(cs, "hl-sc-a", "oxidant", conditions=SEMI)
+    with pytest.raises(ConditionsError, match="the measured-rate check uses the classical model only"):
+        check_measured(cs, [], conditions=SEMI)

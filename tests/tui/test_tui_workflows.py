@@ -459,10 +459,15 @@ async def test_model_toggle_gives_the_semiclassical_prediction_and_both_curves()
         await pilot.pause()
         text = screen_text(app)
         assert "semiclassical" in text and "classical" in text and "inverted past it" in text
-        await pilot.press("6")  # the map stays classical and says so
+        await pilot.press("6")  # the map takes the same model and says so
         heat = screen.query_one(HeatMap)
         for _ in range(200):
             await pilot.pause(0.02)
             if heat._values is not None:
                 break
-        assert "classical model (no semiclassical map)" in heat._note  # the note line ends the legend
+        assert "; semiclassical model" in heat._note  # the note line ends the legend
+        m = screen.map_result
+        assert m.rate_model == "semiclassical"
+        i, j = m.ids.index("hl-osmium"), m.ids.index("hl-vanadium")
+        # ln Q within 1e-5 of the per-pair sum (level_sum) and ln k_D within 2e-5 (screened table), in log10
+        assert m.log10_k_obs[i, j] == pytest.approx(want.log10_k_obs, abs=3e-5 / 2.302585)

@@ -26,8 +26,8 @@ class WorkbenchMap:
         heat.message(f"computing the map of {len(ids)} couples...")
         cond, model_note = self.conditions, ""
         if cond is not None and cond.rate_model != "classical":
-            # The map has the classical model only: say so rather than mix models silently.
-            cond, model_note = cond.with_(rate_model="classical"), "; classical model (no semiclassical map)"
+            # Every cell carries the quantum factor of the prediction panel's semiclassical model.
+            model_note = "; semiclassical model"
         self.run_map(ids, cond, f"{len(ids)} couples in {medium} (the couples view's filter){model_note}")
 
     def service_map(self, ids, cond):
