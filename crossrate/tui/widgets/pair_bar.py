@@ -1,11 +1,17 @@
 """The pair bar: oxidant, reductant and the headline result, always visible at the top."""
 
+from __future__ import annotations
+
+from typing import TYPE_CHECKING
+
 from rich.text import Text
 from textual.widgets import Static
 
 from ...library.provenance import mark_of
-from ...services.results import Prediction
 from ..units import rate_text
+
+if TYPE_CHECKING:  # the services are imported after the first paint
+    from ...services.results import Prediction
 
 
 class PairBar(Static):
