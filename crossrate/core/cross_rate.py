@@ -4,7 +4,7 @@ relation, the barrier form, the diffusion limit and the regime, for arrays of pa
 For millions of pairs at one set of conditions, when only ln k_obs (and the regime) is wanted,
 crossrate.core.rate_grid gives the same numbers some 40x faster."""
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 import numpy as np
 
@@ -23,10 +23,9 @@ from .screened_debye_table import bjerrum_length, screened_ln_factor
 from .work_terms import debye_kappa, work_term
 
 
-# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
-# raised); compared by identity, and two methods fewer to define at import (a cold start).
-@dataclass(frozen=True, eq=False)
-class CrossRateArrays:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class CrossRateArrays(NamedTuple):
     """Everything computed for a set of pairs. Energies J/mol, logs of rates ln(M^-1 s^-1)."""
 
     dG0: np.ndarray

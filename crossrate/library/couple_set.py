@@ -2,9 +2,8 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from functools import cached_property
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, NamedTuple
 
 if TYPE_CHECKING:
     import numpy as np
@@ -17,10 +16,9 @@ from ..errors import ArgumentError, UnknownCoupleError
 from .couple import Couple
 
 
-# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
-# raised); compared by identity, and two methods fewer to define at import (a cold start).
-@dataclass(frozen=True, eq=False)
-class CoupleArrays:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class CoupleArrays(NamedTuple):
     """Column arrays over the couples of a set, in set order, SI units.
 
     E_root_V: effective potential (excited state applied) on the couple's root scale, V.

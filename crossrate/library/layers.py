@@ -22,9 +22,8 @@ cache of load_cache (a repeat load of an unchanged file skips parsing and valida
 from __future__ import annotations
 
 import os
-from dataclasses import dataclass
 from pathlib import Path
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, NamedTuple
 
 from ..core.potential_scales import PotentialScale, ScaleRegistry
 from ..errors import LibraryError
@@ -43,8 +42,9 @@ GROUP_ENV = "CROSSRATE_GROUP_LIBRARY"
 PERSONAL_ENV = "CROSSRATE_PERSONAL_LIBRARY"
 
 
-@dataclass(frozen=True)
-class LayerFile:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class LayerFile(NamedTuple):
     """One file of the layered set: its layer, path, and what put it there (for messages and `list`)."""
 
     layer: str

@@ -9,20 +9,54 @@ Lines inside multi-line strings are skipped (a slower, eager path used only when
 """
 
 import re
+from functools import cached_property
 
 from .couple import Origin
 
 _KEY = r'(?:[A-Za-z0-9_-]+|"(?:[^"\\\n]|\\.)*"|\'[^\'\n]*\')'
-_HEADER_START = re.compile(r"^[ \t]*\[", re.M)
-_SIMPLE_COUPLE = re.compile(r"[ \t]*\[couple\.([a-z0-9_-]+)\][ \t]*(?:#[^\n]*)?\r?$", re.M)
-# One match per line: group 1 a quoted key or header candidate (looked at again), group 2 a bare key.
-_LINE = re.compile(r"^[ \t]*(?:([\[\"'])|([A-Za-z0-9_-]+)[ \t]*[=.])?", re.M)
-#: A line that starts with a key (bare or quoted) followed by "=" (or "." of a dotted key).
-KEY_LINE = re.compile(r"[ \t]*(" + _KEY + r")[ \t]*[=.]")
-_HEADER = re.compile(
-    r"^\[(\[)?[ \t]*(" + _KEY + r"(?:[ \t]*\.[ \t]*" + _KEY + r")*)[ \t]*\](\])?[ \t]*(?:#[^\n]*)?\r?$"
-)
-_KEY_PART = re.compile(_KEY)
+
+
+class _Patterns:
+    """The scanner's regular expressions, each compiled on first use: compiling them all costs a cold command
+    about 1 ms, and a library read from the load cache (load_cache) is never scanned."""
+
+    @cached_property
+    def header_start(self) -> re.Pattern:
+        return re.compile(r"^[ \t]*\[", re.M)
+
+    @cached_property
+    def simple_couple(self) -> re.Pattern:
+        return re.compile(r"[ \t]*\[couple\.([a-z0-9_-]+)\][ \t]*(?:#[^\n]*)?\r?$", re.M)
+
+    @cached_property
+    def line(self) -> re.Pattern:
+        # One match per line: group 1 a quoted key or header candidate (looked at again), group 2 a bare key.
+        return re.compile(r"^[ \t]*(?:([\[\"'])|([A-Za-z0-9_-]+)[ \t]*[=.])?", re.M)
+
+    @cached_property
+    def key_line(self) -> re.Pattern:
+        """A line that starts with a key (bare or quoted) followed by "=" (or "." of a dotted key)."""
+        return re.compile(r"[ \t]*(" + _KEY + r")[ \t]*[=.]")
+
+    @cached_property
+    def header(self) -> re.Pattern:
+        return re.compile(
+            r"^\[(\[)?[ \t]*(" + _KEY + r"(?:[ \t]*\.[ \t]*" + _KEY + r")*)[ \t]*\](\])?[ \t]*(?:#[^\n]*)?\r?$"
+        )
+
+    @cached_property
+    def key_part(self) -> re.Pattern:
+        return re.compile(_KEY)
+
+
+_RE = _Patterns()
+
+
+def __getattr__(name: str):
+    """KEY_LINE: a line that starts with a key followed by "=" (or "."), compiled on first use (see _Patterns)."""
+    if name == "KEY_LINE":
+        return _RE.key_line
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
 
 
 def _unquote(part: str) -> str:
@@ -43,12 +77,12 @@ def _unquote(part: str) -> str:
 
 def parse_header(line: str) -> tuple[tuple[str, ...], bool] | None:
     """(key path, is-array) of a table header line, or None when the line is not a header."""
-    m = _HEADER.match(line.lstrip(" \t"))
+    m = _RE.header.match(line.lstrip(" \t"))
     if m is None:
         return None
     if bool(m.group(1)) != bool(m.group(3)):
         return None
-    parts = tuple(_unquote(p) for p in _KEY_PART.findall(m.group(2)))
+    parts = tuple(_unquote(p) for p in _RE.key_part.findall(m.group(2)))
     return parts, bool(m.group(1))
 
 
@@ -57,14 +91,14 @@ def _scan_fields(text: str, start: int, end: int, header_line: int) -> tuple[tup
     out = []
     lineno = header_line
     lines = None
-    for other, key in _LINE.findall(text, start, end):
+    for other, key in _RE.line.findall(text, start, end):
         lineno += 1
         if key:
             out.append((key, lineno))
         elif other and other != "[":
             if lines is None:
                 lines = text[start:end].split("\n")
-            m = KEY_LINE.match(lines[lineno - header_line - 1])
+            m = _RE.key_line.match(lines[lineno - header_line - 1])
             if m:
                 out.append((_unquote(m.group(1)), lineno))
     return tuple(out)
@@ -175,10 +209,10 @@ class LineIndex:
         if '"""' in text or "'''" in text:
             return cls._scan_slow(text)
         count, find = text.count, text.find
-        simple = _SIMPLE_COUPLE.match
+        simple = _RE.simple_couple.match
         heads = []  # (start offset, line, key, array)
         line, last = 1, 0
-        for m in _HEADER_START.finditer(text):
+        for m in _RE.header_start.finditer(text):
             s = m.start()
             line += count("\n", last, s)
             last = s
@@ -224,7 +258,7 @@ class LineIndex:
                         cur_key, cur_array = parsed
                         cur_line, fields = lineno, []
                 else:
-                    m = KEY_LINE.match(line)
+                    m = _RE.key_line.match(line)
                     if m:
                         fields.append((_unquote(m.group(1)), lineno))
             if state is not None or '"""' in line or "'''" in line:

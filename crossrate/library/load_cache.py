@@ -24,9 +24,9 @@ import os
 import pickle
 import stat
 import sys
-from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
+from typing import NamedTuple
 
 from ..core.potential_scales import PotentialScale
 from .couple import Couple
@@ -42,8 +42,9 @@ _DATA_DIR = "core/data"
 _SUFFIX = ".pickle"
 
 
-@dataclass(frozen=True, eq=False)
-class LoadedLibrary:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class LoadedLibrary(NamedTuple):
     """What the layered loader needs of one valid library file.
 
     path, layer: as given; sha256: hex digest of the bytes read; title, description, defaults (medium,

@@ -12,7 +12,7 @@ What is carried, and how (documented in the README, "Formal potentials at the ta
    (Conditions.allow_E_other_medium), and then E is used as given, uncorrected, and the outputs say so.
 """
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 import numpy as np
 
@@ -36,10 +36,9 @@ T_TOLERANCE_K = 1e-6
 I_TOLERANCE_M = 1e-9
 
 
-# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
-# raised); compared by identity, and two methods fewer to define at import (a cold start).
-@dataclass(frozen=True, eq=False)
-class PotentialsAt:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class PotentialsAt(NamedTuple):
     """Effective potentials (V on each couple's root scale) of couples idx at target conditions.
 
     E_root_V: carried potential; E_sd_V: its SD used in the interval (given or default, grown with |Delta T|

@@ -7,7 +7,7 @@ with DEFAULT_KAPPA_EL_LOG10_SD as its uncertainty); 1 (adiabatic) otherwise.
 """
 
 import weakref
-from dataclasses import dataclass
+from typing import NamedTuple
 
 import numpy as np
 
@@ -30,10 +30,9 @@ LAMBDA_IN_NONE, LAMBDA_IN_FIELD, LAMBDA_IN_BONDS = 0, 1, 2
 KAPPA_ADIABATIC, KAPPA_FIELD, KAPPA_DEFAULT = 0, 1, 2
 
 
-# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
-# raised); compared by identity, and two methods fewer to define at import (a cold start).
-@dataclass(frozen=True, eq=False)
-class LambdaColumns:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class LambdaColumns(NamedTuple):
     """Columns over the couples of a set (set order).
 
     lambda_in_J: inner-sphere lambda of the self-exchange, J/mol (NaN where the couple gives none);

@@ -1,6 +1,6 @@
 """Predicting cross-reaction rate constants from the couple library: one pair in full, or many at once."""
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 import numpy as np
 
@@ -43,8 +43,9 @@ REGIME_EXPLANATIONS = {
 }
 
 
-@dataclass(frozen=True)
-class ResolvedConditions:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class ResolvedConditions(NamedTuple):
     """Conditions resolved for one pair: T (K), I (mol/L), medium key and its values, ln Z, the cap."""
 
     temperature_K: float

@@ -13,7 +13,7 @@ Delta G deg' = 0; a factor that is 1 there keeps the prediction anchored on them
 force, above all in the inverted region, where the quantized mode makes it fall far more gently.
 """
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -99,8 +99,8 @@ class QuantumModel:
         """res with k_act multiplied by Q and k_obs, the diffusion flag recomputed."""
         ln_act = np.asarray(res.ln_k_act, dtype=float) + self.ln_factor(res, T_K)
         ln_obs = ln_k_observed(ln_act, res.ln_k_diff) if diffusion else ln_act
-        return replace(res, ln_k_act=ln_act, ln_k_obs=ln_obs,
-                       diffusion_controlled=diffusion_controlled(ln_act, res.ln_k_diff) & bool(diffusion))
+        return res._replace(ln_k_act=ln_act, ln_k_obs=ln_obs,
+                            diffusion_controlled=diffusion_controlled(ln_act, res.ln_k_diff) & bool(diffusion))
 
 
 def _trilinear(table, axes, points):

@@ -11,7 +11,7 @@ practice). The project's choice is a default SD of 0.3 in log10 k_D (a factor of
 """
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from typing import NamedTuple
 
 import numpy as np
 
@@ -56,8 +56,9 @@ def percentiles_linear(x, percents) -> np.ndarray:
     return out
 
 
-@dataclass(frozen=True)
-class InputSpread:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class InputSpread(NamedTuple):
     """Standard deviations of the uncertain inputs: E1_V, E2_V (V), ln_k11, ln_k22 and ln_k_diff (natural
     log; 0 when the diffusion cap is off)."""
 

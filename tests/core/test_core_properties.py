@@ -57,7 +57,7 @@ def test_no_nan_or_inf_in_documented_range(kw, diffusion):
         assume(_in_domain(cross_rate(**kw)))
     with np.errstate(over="raise", divide="raise", invalid="raise"):  # no overflow, 0-division, invalid op
         res = cross_rate(**kw, diffusion=diffusion)
-    for name, value in vars(res).items():
+    for name, value in res._asdict().items():
         assert np.all(np.isfinite(np.asarray(value, dtype=float))), name
 
 
