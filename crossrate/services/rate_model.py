@@ -230,5 +230,5 @@ def apply_inner(res: CrossRateArrays, lambda_in11_J, lambda_in22_J, cond, diffus
     ln_q = ln_q_pairs(x, lam, np.broadcast_to(lv12, x.shape), hw, T)
     ln_act = np.asarray(res.ln_k_act, dtype=float) + np.where(np.isfinite(ln_q), ln_q, 0.0)
     ln_obs = ln_k_observed(ln_act, res.ln_k_diff) if diffusion else ln_act
-    return replace(res, ln_k_act=ln_act, ln_k_obs=ln_obs,
-                   diffusion_controlled=diffusion_controlled(ln_act, res.ln_k_diff) & bool(diffusion))
+    return res._replace(ln_k_act=ln_act, ln_k_obs=ln_obs,
+                        diffusion_controlled=diffusion_controlled(ln_act, res.ln_k_diff) & bool(diffusion))
