@@ -112,7 +112,9 @@ def add_rate_model_options(parser: argparse.ArgumentParser) -> None:
     )
     g.add_argument(
         "--hbar-omega", type=positive_float, default=None, metavar="CM-1",
-        help="energy of the quantized mode, 100-5000 cm^-1 (default 1500)",
+        help="energy of the quantized mode, 100-5000 cm^-1; given, it overrides every couple's own hbar_omega "
+             "(without it: a couple's hbar_omega, else 1500; a pair takes the inner-lambda-weighted mean of its "
+             "two couples' modes)",
     )
 
 

@@ -36,11 +36,11 @@ LEVEL_SUM_TOLERANCE = 1e-5
 #: in that variable (G_n ~ y^2 / (|n| + 1) near 0 and ~ 2y far out, both smooth in sqrt(y)).
 ROOT_Y_STEP = 1e-3
 #: Half-width of a window of levels: sigmas of the terms' local Gaussian shape, plus a margin in levels.
-_WINDOW_SIGMAS = 5.5
+_WINDOW_SIGMAS = 5.0
 _WINDOW_MARGIN = 1.0
 #: Below this many thermal quanta the mode counts as cold for the window estimate (hbar omega > ~3 RT).
 COLD_NU = 0.05
-_NEWTON_STEPS = 4
+_NEWTON_STEPS = 3
 _LN_HALF = math.log(0.5)
 #: Levels kept past n = 0 on the far side of a cold mode's peak.
 _ACROSS_ZERO = 7.0
@@ -50,7 +50,7 @@ _RETRY_WIDENINGS = (4.0, 16.0)
 _EDGE = 1e-8
 #: From this many pairs sharing one mode, the sums at zero driving force come from a table
 #: (crossrate.core.zero_drive_table) rather than one by one.
-_TABLE_MIN_PAIRS = 20000
+ZERO_TABLE_MIN_PAIRS = 20000
 #: Elements (levels x pairs) summed at a time, to bound the memory of the 2-D arrays.
 _CHUNK_ELEMENTS = 1 << 16
 
@@ -90,7 +90,7 @@ class LevelWeights:
 
     def zero_table(self, hw: float, r_lo: float, r_hi: float, s_lo: float, s_hi: float):
         """The checked zero_drive_table.ZeroDriveTable of mode hw (RT units) covering rho = 1/lambda_s in
-        [r_lo, r_hi] and sqrt(S) in [s_lo, s_hi], built or grown here; None when no table meets its tolerance."""
+        [r_lo, r_hi] and S in [s_lo, s_hi], built or grown here; None when no table meets its tolerance."""
         from .zero_drive_table import build_zero_table
 
         with self._lock:
@@ -174,26 +174,31 @@ def _window(x, p: _Pairs):
         count[k] = 2.0 * half + 1.0
     if np.any(cold):
         # d ln(term)/dm along m = |n|: ln(mu / (m + 1/2)) -/+ (x + lambda_s -/+ m hbar omega) a, decreasing and
-        # convex in m, so Newton steps from m = 0 rise monotonically towards the root.
+        # convex in m, so Newton steps from m = 0 rise monotonically towards the root (u = m + 1/2 below).
         k = cold if not np.all(cold) else slice(None)
-        a = p.hw[k] / (2.0 * p.ls[k])
+        hw = p.hw[k]
+        a = hw / (2.0 * p.ls[k])
         e = (x[k] + p.ls[k]) * a
         up = p.ln_mu1[k] - _LN_HALF - e > 0.0  # the terms still rise past n = 0: the peak lies above it
-        ln_mu = np.where(up, p.ln_mu1[k], p.ln_mu2[k])
-        sign = np.where(up, 1.0, -1.0)
-        e *= sign
-        ln_mu -= e
-        b = p.hw[k] * a
-        m = np.zeros_like(e)
+        g = np.where(up, p.ln_mu1[k] - e, p.ln_mu2[k] + e)
+        b = hw * a
+        g += 0.5 * b  # ln mu -/+ e - b (u - 1/2) = g - b u
+        u = np.full(g.shape, 0.5)
         for _ in range(_NEWTON_STEPS):
-            m += (ln_mu - np.log(m + 0.5) - b * m) / (1.0 / (m + 0.5) + b)
-            np.maximum(m, 0.0, out=m)
-        mc = np.rint(m)
-        inner = np.ceil(_WINDOW_SIGMAS / np.sqrt(1.0 / (mc + 0.5) + b) + _WINDOW_MARGIN)
-        outer = np.ceil(_WINDOW_SIGMAS / np.sqrt(1.0 / (mc + 1.5 + 1.0 / np.sqrt(b)) + b) + _WINDOW_MARGIN)
+            f = g - np.log(u)
+            f -= b * u
+            # u + f / (1/u + b) = u (1 + f / (1 + b u))
+            f /= 1.0 + b * u
+            f += 1.0
+            u *= f
+            np.maximum(u, 0.5, out=u)
+        mc = np.rint(u - 0.5)
+        s55 = _WINDOW_SIGMAS
+        inner = np.ceil(s55 / np.sqrt(1.0 / (mc + 0.5) + b) + _WINDOW_MARGIN)
+        outer = np.ceil(s55 / np.sqrt(1.0 / (mc + 1.5 + 1.0 / np.sqrt(b)) + b) + _WINDOW_MARGIN)
         # Towards n = 0 and past it: at most mc levels to 0, then a few across it (the weight falls by
         # (nu + 1) / nu per level on the other side).
-        inner = np.minimum(inner, mc + _ACROSS_ZERO)
+        np.minimum(inner, mc + _ACROSS_ZERO, out=inner)
         start[k] = np.where(up, mc - inner, -mc - outer)
         count[k] = inner + outer + 1.0
     return start, count
@@ -257,10 +262,15 @@ def _sum_window(x, ls, hw, ln_mu1, ln_mu2, root_y, start, W, tab: _Table):
         t += r0
         np.multiply(j2, c2[sl], out=r0)
         t += r0
-        if start[sl].min() < 0:
-            np.minimum(j + start[sl], 0.0, out=r0)
-            r0 *= both[sl]
-            t -= r0
+        low = int(-start[sl].min())
+        if low > 0:
+            # only the first rows can hold levels below 0
+            k = min(low, W)
+            c = r0[:k]
+            np.add(j[:k], start[sl], out=c)
+            np.minimum(c, 0.0, out=c)
+            c *= both[sl]
+            t[:k] -= c
         # Shifted by the term at the window's middle (near the peak), so that exp cannot overflow for a usable
         # pair; a pair whose sum still does is marked.
         m = t[mid].copy()
@@ -269,13 +279,12 @@ def _sum_window(x, ls, hw, ln_mu1, ln_mu2, root_y, start, W, tab: _Table):
         total = np.add.reduce(t, axis=0)
         out[sl] = np.log(total) + m + c0[sl]
         if W >= 3:
-            # Past each edge the terms fall at least by the edge ratio r per level (a log-concave sequence), so
-            # the omitted tail is at most edge r / (1 - r); r >= 1 (still rising) fails.
-            tail = 0.0
+            # Past each edge the terms fall at least by the edge ratio r = e / e_in per level (a log-concave
+            # sequence), so the omitted tail is at most e r / (1 - r) = e^2 / (e_in - e); a rising edge fails.
+            lim = _EDGE * total
             for e, e_in in ((t[0], t[1]), (t[-1], t[-2])):
-                r = e / e_in
-                tail = tail + np.where(r < 1.0, e * r / (1.0 - r), np.inf)
-            bad[sl] |= ~(tail < _EDGE * total)
+                gap = e_in - e
+                bad[sl] |= ~((gap > 0.0) & (e * e < lim * gap))
     bad |= ~np.isfinite(out)
     return out, bad
 
@@ -319,9 +328,9 @@ def _sums_at_zero(p: _Pairs, lv, w: LevelWeights):
     """(level sum at x = 0, mask of failures) per pair: from the zero-drive table of the pairs' mode when they
     share one (crossrate.core.zero_drive_table), else summed per pair."""
     hw0 = float(p.hw[0])
-    if np.all(p.hw == hw0) and p.ls.size >= _TABLE_MIN_PAIRS:
-        rho, s = 1.0 / p.ls, np.sqrt(p.S)
-        t = w.zero_table(hw0, float(rho.min()), float(rho.max()), float(s.min()), float(s.max()))
+    if np.all(p.hw == hw0) and p.ls.size >= ZERO_TABLE_MIN_PAIRS:
+        rho = 1.0 / p.ls
+        t = w.zero_table(hw0, float(rho.min()), float(rho.max()), float(p.S.min()), float(p.S.max()))
         if t is not None:
             return t.ln_sum_at_zero(p.ls, p.S), np.zeros(p.ls.shape, bool)
     return _level_sum(np.zeros_like(p.ls), p, w)

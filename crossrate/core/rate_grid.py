@@ -139,6 +139,27 @@ def _semiclassical_sides(c: KernelConditions, mode, sides, level_weights):
     return LevelWeights(c.T_K), hw_RT
 
 
+def semiclassical_weights(E_V, z_ox, z_red, r_m, ln_k_self, T_K, I_M, eps_r, viscosity_Pa_s, ln_Z, semiclassical,
+                          lambda_in_J=None, ln_kappa=None) -> LevelWeights:
+    """A level_sum.LevelWeights for the semiclassical grids over these couples (arguments as one side of
+    ln_k_obs_grid, all couples of a map), its zero-driving-force table built once over the exact ranges of
+    every pair: a pair's lambda_s and lambda_v are the means of its two couples', so they lie between the
+    couples' extremes. Pass it as level_weights to each row block's ln_k_obs_grid."""
+    from .level_sum import ZERO_TABLE_MIN_PAIRS
+
+    c = KernelConditions(T_K, I_M, eps_r, viscosity_Pa_s, ln_Z)
+    side = CoupleSide(c, E_V, z_ox, z_red, r_m, ln_k_self, ln_kappa)
+    side.set_inner(np.nan if lambda_in_J is None else lambda_in_J, semiclassical, c.RT)
+    w = LevelWeights(c.T_K)
+    hw = float(semiclassical.hbar_omega_J_per_mol) / c.RT
+    ls, S = 8.0 * (side.m - side.v), 8.0 * side.v / hw
+    ok = np.isfinite(ls) & np.isfinite(S) & (ls > 0) & (S > 0)
+    if ok.sum() ** 2 >= ZERO_TABLE_MIN_PAIRS:
+        w.zero_table(hw, 1.0 / float(ls[ok].max()), 1.0 / float(ls[ok].min()), float(S[ok].min()),
+                     float(S[ok].max()))
+    return w
+
+
 def ln_k_obs_pairs(
     ox_index, red_index,
     E_V, z_ox, z_red, r_m, ln_k_self,

@@ -42,7 +42,8 @@ class Couple:
     E, E_sd in V on scale E_scale; E_ionic_strength (ionic strength E was measured at; None: ionic_strength)
     in mol/L; dE_dT (temperature coefficient of E) in mV/K; k_self in M^-1 s^-1; k_self_log10_sd in log10
     units; dH_self, lambda_in, lambda_total in kJ/mol; radius in angstrom; molar_mass in g/mol; ionic_strength
-    in mol/L; temperature in K; E00 in eV.
+    in mol/L; temperature in K; E00 in eV; hbar_omega (the high-frequency mode of the semiclassical model) in
+    cm^-1.
     doi: DOI of the source ("10.NNNN/suffix"); date: when the values were entered or last checked.
     """
 
@@ -68,6 +69,7 @@ class Couple:
     lambda_in: float | None = None
     lambda_total: float | None = None
     bonds: tuple[BondSet, ...] = ()
+    hbar_omega: float | None = None
     kappa_el: float | None = None
     molar_mass: float | None = None
     doi: str | None = None

@@ -142,6 +142,8 @@ FIELD_SPECS: tuple[FieldSpec, ...] = (
     _S("lambda_total", "number", "kJ/mol", "total reorganization energy of the self-exchange (instead of k_self)",
        low=0, high=1000, low_open=True),
     _S("bonds", "bonds", "", "bond sets that change on electron transfer (inner-sphere reorganization)"),
+    _S("hbar_omega", "number", "cm^-1", "wavenumber of the couple's high-frequency (inner-sphere) mode, for the "
+       "semiclassical model", low=100, high=5000),
     _S("kappa_el", "number", "", "electronic transmission factor of a non-adiabatic couple",
        low=0, high=1, low_open=True),
     _S("molar_mass", "number", "g/mol", "molar mass of the couple's oxidized form (sets the electrode collision "

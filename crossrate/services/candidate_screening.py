@@ -26,7 +26,7 @@ from ..library.candidate_table import CandidateTable
 from ..library.couple_set import CoupleSet
 from .conditions import Conditions
 from .couple_lambda import lambda_columns
-from .rate_model import apply_inner, model_record
+from .rate_model import apply_inner, couple_modes, model_record
 from .self_exchange import self_exchange_at
 
 LN10 = float(np.log(10.0))
@@ -114,10 +114,13 @@ def screen_candidates(couple_set: CoupleSet, target: str, role: str, table: Cand
         res = cross_rate(one[0], two[0], one[1], one[2], two[1], two[2], one[3], two[3], one[4], two[4], T, I, eps,
                          visc, ln_Z, diffusion=cond.diffusion, ln_kappa11=one[5], ln_kappa22=two[5])
         if cond.rate_model == "semiclassical":
-            # The target's own lambda_in (or bonds); each candidate's inner part is the default share of its lambda.
+            # The target's own lambda_in (or bonds) and mode; each candidate's inner part is the default share of
+            # its lambda, its mode the option's or the default.
             lin_t = float(lambda_columns(couple_set).lambda_in_J[ti[0]])
+            hw_t = float(couple_modes(couple_set, ti, cond.hbar_omega_cm1)[0][0])
             lin = (lin_t, np.nan) if role == "oxidant" else (np.nan, lin_t)
-            res = apply_inner(res, lin[0], lin[1], cond, cond.diffusion)
+            hws = (hw_t, None) if role == "oxidant" else (None, hw_t)
+            res = apply_inner(res, lin[0], lin[1], cond, cond.diffusion, *hws)
     log10_k = np.broadcast_to(np.asarray(res.ln_k_obs, dtype=float) / LN10, (len(table),))
     finite = np.isfinite(log10_k)
     keyed = np.where(finite, log10_k, -np.inf)

@@ -1,5 +1,6 @@
 """Per-couple reorganization data the library's numpy view does not carry: inner-sphere lambda (from the
-lambda_in field or from bond sets) and the electronic transmission factor kappa_el.
+lambda_in field or from bond sets), the energy of the high-frequency mode (hbar_omega) and the electronic
+transmission factor kappa_el.
 
 kappa_el: the couple's own `kappa_el` when given; DEFAULT_KAPPA_EL_NON_ADIABATIC for a couple tagged
 non-adiabatic without a value (an order-of-magnitude choice, common practice for weakly coupled couples,
@@ -37,13 +38,15 @@ class LambdaColumns(NamedTuple):
 
     lambda_in_J: inner-sphere lambda of the self-exchange, J/mol (NaN where the couple gives none);
     lambda_in_from: LAMBDA_IN_* code; kappa_el: transmission factor used (1 for adiabatic);
-    kappa_from: KAPPA_* code.
+    kappa_from: KAPPA_* code; hbar_omega_cm1: the couple's own high-frequency mode, cm^-1 (NaN where not given;
+    the bonds' force constants give no frequency without the atoms' masses, which the library does not hold).
     """
 
     lambda_in_J: np.ndarray
     lambda_in_from: np.ndarray
     kappa_el: np.ndarray
     kappa_from: np.ndarray
+    hbar_omega_cm1: np.ndarray
 
 
 def couple_lambda_in(c: Couple) -> tuple[float, int]:
@@ -86,6 +89,8 @@ def lambda_columns(couple_set: CoupleSet) -> LambdaColumns:
         lambda_in_from=np.array([x[1] for x in lam], dtype=np.int8),
         kappa_el=np.array([x[0] for x in kap], dtype=float),
         kappa_from=np.array([x[1] for x in kap], dtype=np.int8),
+        hbar_omega_cm1=np.array([np.nan if c.hbar_omega is None else float(c.hbar_omega) for c in couple_set],
+                                dtype=float),
     )
     _CACHE[couple_set] = cols
     return cols

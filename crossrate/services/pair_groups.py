@@ -112,7 +112,9 @@ def linear_sd_grouped(cs: CoupleSet, ox, red, groups, ln_k_by_group, sds, T_K, l
     steps = ((0, STEP_E_V, sE, slice(0, N)), (1, STEP_LN_K, sK, slice(0, N)))
     if model:
         lam_in = np.concatenate([model["lambda_in_J"], model["lambda_in_J"]])
-        semi = {"semiclassical": model["semiclassical"], "lambda_in_J": lam_in}
+        own = model["hbar_omega_J"]
+        semi = {"semiclassical": model["semiclassical"], "lambda_in_J": lam_in,
+                "hbar_omega_J": None if own is None else np.concatenate([own, own])}
         steps = ((0, STEP_E_V, sE, slice(0, N)), (1, STEP_LN_K, sds[2], slice(0, N)),
                  (1, STEP_LN_K, sds[3], slice(N, 2 * N)))
     for g, lnk, E_g in zip(groups, ln_k_by_group, E_by_group, strict=True):

@@ -16,7 +16,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..core.level_sum import LevelWeights
-from ..core.rate_grid import ln_k_obs_grid
+from ..core.rate_grid import ln_k_obs_grid, semiclassical_weights
 from ..core.screened_debye_table import TABLE_MIN_PAIRS, screened_debye_table
 from ..core.solvents import get_solvent
 from ..errors import ConditionsError
@@ -177,12 +177,18 @@ def rate_map(
         model = grid_model(couple_set, m, cond)
         semi = {}
         if model:
-            # One weight table for all row blocks of the map (level_sum.LevelWeights grows as needed).
-            semi = {"semiclassical": model["semiclassical"], "level_weights": LevelWeights(T)}
+            # One set of tables for all row blocks of the map (level_sum.LevelWeights; its zero-driving-force
+            # table built once over every pair's range).
+            weights = semiclassical_weights(E, a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok], T, I, eps, visc,
+                                            ln_Z, model["semiclassical"], model["lambda_in_J"], ln_kap[ok]) \
+                if model["hbar_omega_J"] is None else LevelWeights(T)
+            semi = {"semiclassical": model["semiclassical"], "level_weights": weights}
         for s in range(0, m.size, ROWS_PER_STEP):
             r = slice(s, s + ROWS_PER_STEP)
             if model:
-                semi.update(lambda_in1_J=model["lambda_in_J"][r], lambda_in2_J=model["lambda_in_J"])
+                own = model["hbar_omega_J"]
+                semi.update(lambda_in1_J=model["lambda_in_J"][r], lambda_in2_J=model["lambda_in_J"],
+                            hbar_omega1_J=None if own is None else own[r], hbar_omega2_J=own)
             grid = ln_k_obs_grid(
                 E[r], a.z_ox[m[r]], a.z_red[m[r]], a.radius_m[m[r]], se.ln_k[ok][r],
                 E, a.z_ox[m], a.z_red[m], a.radius_m[m], se.ln_k[ok],

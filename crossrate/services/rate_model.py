@@ -4,7 +4,10 @@ semiclassical (the same, bent by a quantized high-frequency mode).
 Semiclassical: the pair's lambda12 is split into an inner, high-frequency part lambda_v12 and an outer,
 classical part lambda_s12 = lambda12 - lambda_v12 (crossrate.core.semiclassical.pair_inner_lambda, from each
 couple's lambda_in or bonds; DEFAULT_INNER_FRACTION of its lambda where it gives neither), with one mode of
-energy hbar omega (the option, or DEFAULT_HBAR_OMEGA_CM1). The activation-controlled cross rate is the
+energy hbar omega. The pair's hbar omega is the mean of the two couples' modes weighted by their inner parts
+(crossrate.core.semiclassical.pair_hbar_omega); a couple's mode is its own `hbar_omega` field where it gives
+one, else the --hbar-omega option, else DEFAULT_HBAR_OMEGA_CM1; an --hbar-omega given explicitly
+(Conditions.hbar_omega_cm1) overrides the couples' own values. The activation-controlled cross rate is the
 classical one times the quantum factor Q(Delta G deg') of crossrate.core.semiclassical.ln_quantum_factor:
 the Marcus–Levich–Jortner rate over the classical rate at the same lambda, normalized to Q = 1 at
 Delta G deg' = 0. Why: the cross relation is built on the measured self-exchange rates, which are rates at
@@ -53,12 +56,17 @@ def check_rate_model(model: str, hbar_omega_cm1: float | None) -> None:
 @dataclass(frozen=True)
 class QuantumModel:
     """Inner parts of the two couples' lambdas (J/mol, NaN = not given), where they came from ('lambda_in',
-    'bonds' or 'default'), and the mode's energy (cm^-1)."""
+    'bonds' or 'default'), each couple's mode (cm^-1) and where it came from ('couple': its hbar_omega field;
+    'option': --hbar-omega; 'default')."""
 
     lambda_in11_J: float
     lambda_in22_J: float
     sources: tuple[str, str]
-    hbar_omega_cm1: float
+    hbar_omega1_cm1: float
+    hbar_omega2_cm1: float
+    hbar_sources: tuple[str, str] = ("default", "default")
+    #: The couples' own hbar_omega fields, cm^-1 (NaN where none; overridden when the option is given).
+    own_cm1: tuple[float, float] = (float("nan"), float("nan"))
 
     def inner_lambda(self, res: CrossRateArrays):
         """(lambda_v12, clipped) for the pairs of res (J/mol)."""
@@ -66,6 +74,16 @@ class QuantumModel:
 
         return pair_inner_lambda(res.lambda11, res.lambda22, self.lambda_in11_J, self.lambda_in22_J,
                                  DEFAULT_INNER_FRACTION)
+
+    def pair_hbar_omega_J(self, lam11, lam22):
+        """The pair's mode energy, J/mol, at self-exchange lambdas lam11, lam22 (J/mol): the couples' modes
+        weighted by their inner parts (crossrate.core.semiclassical.pair_hbar_omega)."""
+        from ..core.semiclassical import couple_inner_lambda, pair_hbar_omega
+
+        v11 = couple_inner_lambda(lam11, self.lambda_in11_J, DEFAULT_INNER_FRACTION)
+        v22 = couple_inner_lambda(lam22, self.lambda_in22_J, DEFAULT_INNER_FRACTION)
+        return pair_hbar_omega(v11, v22, self.hbar_omega1_cm1 * J_PER_MOL_PER_CM1,
+                               self.hbar_omega2_cm1 * J_PER_MOL_PER_CM1)
 
     def _exact(self, dG0p, lam11, lam22, T_K):
         from ..core.semiclassical import ln_quantum_factor, pair_inner_lambda
@@ -75,8 +93,8 @@ class QuantumModel:
         ok = np.isfinite(lam) & (lam > 0) & np.isfinite(dG0p)
         safe_lam = np.where(ok, lam, 1.0)
         safe_lv = np.where(ok, lv12, 0.0)
-        q = ln_quantum_factor(np.where(ok, dG0p, 0.0), safe_lam - safe_lv, safe_lv,
-                              self.hbar_omega_cm1 * J_PER_MOL_PER_CM1, T_K)
+        hw = self.pair_hbar_omega_J(np.where(ok, lam11, 1.0), np.where(ok, lam22, 1.0))
+        q = ln_quantum_factor(np.where(ok, dG0p, 0.0), safe_lam - safe_lv, safe_lv, hw, T_K)
         return np.where(ok, q, 0.0)
 
     def ln_factor(self, res: CrossRateArrays, T_K: float):
@@ -122,15 +140,30 @@ def _trilinear(table, axes, points):
     return out
 
 
+def couple_modes(couple_set, members, hbar_omega_cm1: float | None):
+    """(mode of each couple at positions `members` in cm^-1, where it came from: 'couple', 'option' or
+    'default'): the couple's own hbar_omega field unless the option hbar_omega_cm1 is given, which overrides
+    them all; the option, else DEFAULT_HBAR_OMEGA_CM1, where a couple gives none."""
+    own = lambda_columns(couple_set).hbar_omega_cm1[np.asarray(members, dtype=np.intp)]
+    if hbar_omega_cm1 is not None:
+        return np.full(own.shape, float(hbar_omega_cm1)), ("option",) * own.size
+    has = np.isfinite(own)
+    return (np.where(has, own, DEFAULT_HBAR_OMEGA_CM1),
+            tuple("couple" if h else "default" for h in has.tolist()))
+
+
 def quantum_model(couple_set, indices, hbar_omega_cm1: float | None) -> QuantumModel:
-    """The QuantumModel of the pair of couples at positions indices (oxidant, reductant) of couple_set."""
+    """The QuantumModel of the pair of couples at positions indices (oxidant, reductant) of couple_set;
+    hbar_omega_cm1: the --hbar-omega option (None: each couple's own mode, else the default)."""
     cols = lambda_columns(couple_set)
     i, j = (int(k) for k in indices)
+    hw, from_ = couple_modes(couple_set, [i, j], hbar_omega_cm1)
     return QuantumModel(
         lambda_in11_J=float(cols.lambda_in_J[i]), lambda_in22_J=float(cols.lambda_in_J[j]),
         sources=(_SOURCES.get(int(cols.lambda_in_from[i]), "default"),
                  _SOURCES.get(int(cols.lambda_in_from[j]), "default")),
-        hbar_omega_cm1=float(hbar_omega_cm1 if hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1),
+        hbar_omega1_cm1=float(hw[0]), hbar_omega2_cm1=float(hw[1]), hbar_sources=from_,
+        own_cm1=(float(cols.hbar_omega_cm1[i]), float(cols.hbar_omega_cm1[j])),
     )
 
 
@@ -139,10 +172,12 @@ def semiclassical_summary(q: QuantumModel, res: CrossRateArrays, T_K: float, ids
     lv12, clipped = q.inner_lambda(res)
     lam = float(np.asarray(res.lambda12))
     lnq = float(np.asarray(q.ln_factor(res, T_K)))
+    hw = float(np.asarray(q.pair_hbar_omega_J(res.lambda11, res.lambda22))) / J_PER_MOL_PER_CM1
     info = {
         "lambda_in12_kJ_per_mol": float(np.asarray(lv12)) / 1e3,
         "lambda_out12_kJ_per_mol": (lam - float(np.asarray(lv12))) / 1e3,
-        "hbar_omega_cm1": q.hbar_omega_cm1,
+        "hbar_omega_cm1": hw,
+        "hbar_omega_from": {ids[0]: q.hbar_sources[0], ids[1]: q.hbar_sources[1]},
         "log10_quantum_factor": lnq / np.log(10.0),
         "inner_from": {ids[0]: q.sources[0], ids[1]: q.sources[1]},
     }
@@ -154,38 +189,60 @@ def semiclassical_summary(q: QuantumModel, res: CrossRateArrays, T_K: float, ids
     if bool(np.any(clipped)):
         warnings.append("semiclassical model: a couple's lambda_in exceeds 95 % of the lambda read from its "
                         "k_self; its inner part was held to 95 %")
-    if not hbar_given:
-        warnings.append(f"semiclassical model: hbar omega {q.hbar_omega_cm1:g} cm^-1 (the default; "
-                        "--hbar-omega to change)")
+    warnings.append(_mode_warning(q, ids, hw, hbar_given))
     return info, warnings
+
+
+def _mode_warning(q: QuantumModel, ids, hw: float, hbar_given: bool) -> str:
+    """The line saying which hbar omega the prediction used and where it came from."""
+    if hbar_given:
+        over = [f"{cid}'s own {w:g} cm^-1" for cid, w in zip(ids, q.own_cm1, strict=True) if np.isfinite(w)]
+        return (f"semiclassical model: hbar omega {hw:g} cm^-1 (--hbar-omega"
+                + (f", overriding {' and '.join(over)})" if over else ")"))
+    parts = []
+    for cid, w, src in zip(ids, (q.hbar_omega1_cm1, q.hbar_omega2_cm1), q.hbar_sources, strict=True):
+        parts.append(f"{cid} {w:g} cm^-1 ({'its hbar_omega' if src == 'couple' else 'the default'})")
+    if q.hbar_sources == ("default", "default"):
+        return f"semiclassical model: hbar omega {hw:g} cm^-1 (the default; --hbar-omega to change)"
+    return (f"semiclassical model: hbar omega {hw:.0f} cm^-1, the inner-lambda-weighted mean of "
+            + " and ".join(parts))
 
 
 def grid_model(couple_set, members, cond):
     """Keyword arguments of the core rate grid (crossrate.core.rate_grid) for the rate model of `cond` over the
     couples at positions `members`: {} for the classical model; for the semiclassical one the mode
-    (level_sum.SemiclassicalMode: hbar omega, DEFAULT_INNER_FRACTION) and each couple's inner lambda_in (J/mol,
-    NaN where the couple gives neither lambda_in nor bonds). The same rule as quantum_model, per couple."""
+    (level_sum.SemiclassicalMode: the option's or the default hbar omega, DEFAULT_INNER_FRACTION), each
+    couple's inner lambda_in (J/mol, NaN where the couple gives neither lambda_in nor bonds) and each couple's
+    own mode (hbar_omega_J, J/mol, NaN where none; None when the option overrides them or none has one). The
+    same rules as quantum_model, per couple."""
     if cond.rate_model != "semiclassical":
         return {}
     from ..core.level_sum import SemiclassicalMode
 
     cols = lambda_columns(couple_set)
+    idx = np.asarray(members, dtype=np.intp)
     hw = cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1
+    own = cols.hbar_omega_cm1[idx]
     return {"semiclassical": SemiclassicalMode(hw * J_PER_MOL_PER_CM1, DEFAULT_INNER_FRACTION),
-            "lambda_in_J": cols.lambda_in_J[np.asarray(members, dtype=np.intp)]}
+            "lambda_in_J": cols.lambda_in_J[idx],
+            "hbar_omega_J": own * J_PER_MOL_PER_CM1
+            if cond.hbar_omega_cm1 is None and bool(np.any(np.isfinite(own))) else None}
 
 
 def model_record(couple_set, members, cond) -> dict | None:
-    """What a many-pair result (map, screen) says of its semiclassical model: hbar omega (cm^-1) and whether it
-    was the default, the default inner fraction and how many of the couples at positions `members` used it
+    """What a many-pair result (map, screen) says of its semiclassical model: hbar omega (cm^-1; the option's or
+    the default, for the couples without a mode of their own) and whether it was the default, how many of the
+    couples at positions `members` used their own hbar_omega, the default inner fraction and how many used it
     (no lambda_in or bonds). None for the classical model."""
     if cond.rate_model != "semiclassical":
         return None
     cols = lambda_columns(couple_set)
     idx = np.asarray(members, dtype=np.intp)
+    own = 0 if cond.hbar_omega_cm1 is not None else int(np.isfinite(cols.hbar_omega_cm1[idx]).sum())
     return {
         "hbar_omega_cm1": float(cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1),
         "hbar_omega_default": cond.hbar_omega_cm1 is None,
+        "couples_with_own_hbar_omega": own,
         "inner_default_fraction": DEFAULT_INNER_FRACTION,
         "couples_with_default_inner": int((~np.isfinite(cols.lambda_in_J[idx])).sum()),
     }
@@ -195,7 +252,12 @@ def model_line(record: dict | None) -> str:
     """One sentence naming the model of a many-pair result (map, screen), from model_record."""
     if record is None:
         return "model: classical (Marcus cross relation)"
-    hw = f"hbar omega {record['hbar_omega_cm1']:g} cm^-1" + (" (the default)" if record["hbar_omega_default"] else "")
+    hw = f"hbar omega {record['hbar_omega_cm1']:g} cm^-1" + (" (the default)" if record["hbar_omega_default"] else
+                                                               " (--hbar-omega)")
+    own = record["couples_with_own_hbar_omega"]
+    if own:
+        hw = (f"each couple's own hbar_omega for {own} couple{'' if own == 1 else 's'}, else {hw}; a pair takes "
+              "the inner-lambda-weighted mean of its two")
     text = f"model: semiclassical (cross relation x quantum factor Q, Q = 1 at dG0' = 0; {hw}"
     n = record["couples_with_default_inner"]
     if n:
@@ -211,23 +273,31 @@ def apply_to_pairs(res: CrossRateArrays, couple_set, ox, red, cond, diffusion: b
     (crossrate.core.level_sum, within LEVEL_SUM_TOLERANCE in ln Q)."""
     if cond.rate_model != "semiclassical":
         return res
-    cols = lambda_columns(couple_set)
-    lam_in = cols.lambda_in_J
-    return apply_inner(res, lam_in[np.asarray(ox, dtype=np.intp)], lam_in[np.asarray(red, dtype=np.intp)], cond,
-                       diffusion)
+    lam_in = lambda_columns(couple_set).lambda_in_J
+    o, r = np.asarray(ox, dtype=np.intp), np.asarray(red, dtype=np.intp)
+    hw1, _ = couple_modes(couple_set, o, cond.hbar_omega_cm1)
+    hw2, _ = couple_modes(couple_set, r, cond.hbar_omega_cm1)
+    return apply_inner(res, lam_in[o], lam_in[r], cond, diffusion, hw1, hw2)
 
 
-def apply_inner(res: CrossRateArrays, lambda_in11_J, lambda_in22_J, cond, diffusion: bool) -> CrossRateArrays:
-    """apply_to_pairs for pairs given by their couples' lambda_in (J/mol, NaN: the default fraction)."""
+def apply_inner(res: CrossRateArrays, lambda_in11_J, lambda_in22_J, cond, diffusion: bool, hbar_omega1_cm1=None,
+                hbar_omega2_cm1=None) -> CrossRateArrays:
+    """apply_to_pairs for pairs given by their couples' lambda_in (J/mol, NaN: the default fraction) and modes
+    (cm^-1; None: the option's or the default)."""
     from ..core.level_sum import ln_q_pairs
-    from ..core.semiclassical import pair_inner_lambda
+    from ..core.semiclassical import couple_inner_lambda, pair_hbar_omega
 
     T = float(cond.temperature_K)
-    lv12, _ = pair_inner_lambda(res.lambda11, res.lambda22, lambda_in11_J, lambda_in22_J, DEFAULT_INNER_FRACTION)
-    hw = (cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1) * J_PER_MOL_PER_CM1
+    v11 = couple_inner_lambda(res.lambda11, lambda_in11_J, DEFAULT_INNER_FRACTION)
+    v22 = couple_inner_lambda(res.lambda22, lambda_in22_J, DEFAULT_INNER_FRACTION)
+    lv12 = 0.5 * (v11 + v22)
+    base = cond.hbar_omega_cm1 if cond.hbar_omega_cm1 is not None else DEFAULT_HBAR_OMEGA_CM1
+    hw1 = base if hbar_omega1_cm1 is None else hbar_omega1_cm1
+    hw2 = base if hbar_omega2_cm1 is None else hbar_omega2_cm1
+    hw = pair_hbar_omega(v11, v22, hw1, hw2) * J_PER_MOL_PER_CM1
     x = np.asarray(res.dG0_prime, dtype=float)
     lam = np.broadcast_to(np.asarray(res.lambda12, dtype=float), x.shape)
-    ln_q = ln_q_pairs(x, lam, np.broadcast_to(lv12, x.shape), hw, T)
+    ln_q = ln_q_pairs(x, lam, np.broadcast_to(lv12, x.shape), np.broadcast_to(hw, x.shape), T)
     ln_act = np.asarray(res.ln_k_act, dtype=float) + np.where(np.isfinite(ln_q), ln_q, 0.0)
     ln_obs = ln_k_observed(ln_act, res.ln_k_diff) if diffusion else ln_act
     return res._replace(ln_k_act=ln_act, ln_k_obs=ln_obs,

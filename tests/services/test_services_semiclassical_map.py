@@ -72,7 +72,8 @@ def test_map_json_says_the_model(cs):
     assert d["rate_model"] == "semiclassical"
     # 14 couples, every third (0, 3, 6, 9, 12) with lambda_in of its own: 9 use the default inner share.
     assert d["semiclassical"] == {"hbar_omega_cm1": 1500.0, "hbar_omega_default": True,
-                                  "inner_default_fraction": 0.25, "couples_with_default_inner": 9}
+                                  "couples_with_own_hbar_omega": 0, "inner_default_fraction": 0.25,
+                                  "couples_with_default_inner": 9}
     assert rate_map(cs).to_dict()["rate_model"] == "classical"
 
 
