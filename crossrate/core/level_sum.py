@@ -36,18 +36,19 @@ LEVEL_SUM_TOLERANCE = 1e-5
 #: in that variable (G_n ~ y^2 / (|n| + 1) near 0 and ~ 2y far out, both smooth in sqrt(y)).
 ROOT_Y_STEP = 1e-3
 #: Half-width of a window of levels: sigmas of the terms' local Gaussian shape, plus a margin in levels.
-_WINDOW_SIGMAS = 5.0
+_WINDOW_SIGMAS = 4.5
 _WINDOW_MARGIN = 1.0
 #: Below this many thermal quanta the mode counts as cold for the window estimate (hbar omega > ~3 RT).
 COLD_NU = 0.05
-_NEWTON_STEPS = 3
+_NEWTON_STEPS = 2
 _LN_HALF = math.log(0.5)
 #: Levels kept past n = 0 on the far side of a cold mode's peak.
 _ACROSS_ZERO = 7.0
 #: Levels added on each side of a window found too short, in turn, before the exact path takes over.
 _RETRY_WIDENINGS = (4.0, 16.0)
-#: Omitted tails below this share of the sum are accepted.
-_EDGE = 1e-8
+#: Omitted tails below this share of the sum are accepted (ln of the sum then moves by less than it, a tenth of
+#: LEVEL_SUM_TOLERANCE).
+_EDGE = 1e-6
 #: From this many pairs sharing one mode, the sums at zero driving force come from a table
 #: (crossrate.core.zero_drive_table) rather than one by one.
 ZERO_TABLE_MIN_PAIRS = 20000
@@ -72,6 +73,8 @@ class _Table:
     """G_n on the sqrt(y) grid (rows) for levels n_lo..n_hi (columns), sqrt(y) up to root_y_max."""
 
     g: np.ndarray
+    #: g's step to the next grid row (0 in the last), so that interpolation reads both at the same position.
+    d: np.ndarray
     n_lo: int
     n_hi: int
     root_y_max: float
@@ -84,7 +87,7 @@ class LevelWeights:
 
     def __init__(self, T_K: float):
         self.T_K = float(T_K)
-        self.current = _Table(np.zeros((2, 1)), 0, -1, -1.0)
+        self.current = _Table(np.zeros((2, 1)), np.zeros((2, 1)), 0, -1, -1.0)
         self._lock = threading.Lock()
         self._zero: dict[float, object] = {}
 
@@ -136,7 +139,9 @@ class LevelWeights:
             # ln I_|n|(2y) = ln P_n(mu1 = mu2 = y) + 2y (Skellam with equal means)
             g[1:] = ln_skellam(n[None, :], y[:, None], y[:, None]) + 2.0 * y[:, None] - np.abs(n) * np.log(y)[:, None]
             g[0] = -ln_factorial(np.abs(n))  # y -> 0: I_m(2y) -> y^m / m!
-            self.current = _Table(g, int(n_lo), int(n_hi), (rows - 1) * ROOT_Y_STEP)
+            d = np.zeros_like(g)
+            d[:-1] = g[1:] - g[:-1]
+            self.current = _Table(g, d, int(n_lo), int(n_hi), (rows - 1) * ROOT_Y_STEP)
             return self.current
 
 
@@ -233,7 +238,7 @@ def _sum_window(x, ls, hw, ln_mu1, ln_mu2, root_y, start, W, tab: _Table):
     j = np.arange(W, dtype=float)[:, None]
     j2 = j * j
     cols = tab.g.shape[1]
-    flat = tab.g.reshape(-1)
+    flat, dflat = tab.g.reshape(-1), tab.d.reshape(-1)
     ps = root_y / ROOT_Y_STEP
     i = np.minimum(ps.astype(np.intp), tab.g.shape[0] - 2)
     frac = ps - i
@@ -249,14 +254,14 @@ def _sum_window(x, ls, hw, ln_mu1, ln_mu2, root_y, start, W, tab: _Table):
     jint = np.arange(W, dtype=np.intp)[:, None]
     mid = W // 2
     rows = max(1, _CHUNK_ELEMENTS // W)
+    idx_buf = np.empty((W, min(rows, x.size)), dtype=np.intp)
     for s in range(0, x.size, rows):
         sl = slice(s, s + rows)
-        idx = jint + base[sl]
-        r0 = flat.take(idx)
-        idx += cols
-        t = flat.take(idx)
-        t -= r0
+        idx = idx_buf[:, :min(rows, x.size - s)]
+        np.add(jint, base[sl], out=idx)
+        t = dflat.take(idx)
         t *= frac[sl]
+        r0 = flat.take(idx)
         t += r0
         np.multiply(j, c1[sl], out=r0)
         t += r0
@@ -290,6 +295,17 @@ def _sum_window(x, ls, hw, ln_mu1, ln_mu2, root_y, start, W, tab: _Table):
 
 
 def _pairs(ls, lv, hw) -> _Pairs:
+    """The per-pair quantities; hw an array or one number (then the mode's constants are worked out once and
+    hw, nu are read-only broadcasts)."""
+    if np.ndim(hw) == 0:
+        hw = float(hw)
+        nu = 1.0 / math.expm1(hw)
+        S = lv / hw
+        lnS = np.log(S)
+        shape = S.shape
+        return _Pairs(ls=ls, hw=np.broadcast_to(hw, shape), nu=np.broadcast_to(nu, shape), S=S,
+                      ln_mu1=lnS + math.log1p(nu), ln_mu2=lnS + math.log(nu),
+                      root_y=np.sqrt(S * math.sqrt(nu * (nu + 1.0))))
     nu = 1.0 / np.expm1(hw)
     S = lv / hw
     lnS = np.log(S)
@@ -328,7 +344,8 @@ def _sums_at_zero(p: _Pairs, lv, w: LevelWeights):
     """(level sum at x = 0, mask of failures) per pair: from the zero-drive table of the pairs' mode when they
     share one (crossrate.core.zero_drive_table), else summed per pair."""
     hw0 = float(p.hw[0])
-    if np.all(p.hw == hw0) and p.ls.size >= ZERO_TABLE_MIN_PAIRS:
+    one_mode = p.hw.strides == (0,) or bool(np.all(p.hw == hw0))  # a broadcast of one number, or all equal
+    if one_mode and p.ls.size >= ZERO_TABLE_MIN_PAIRS:
         rho = 1.0 / p.ls
         t = w.zero_table(hw0, float(rho.min()), float(rho.max()), float(p.S.min()), float(p.S.max()))
         if t is not None:
@@ -345,16 +362,24 @@ def ln_q_pairs_rt(x_RT, lam_RT, lv_RT, hw_RT, w: LevelWeights) -> np.ndarray:
     x = np.asarray(x_RT, dtype=float).ravel()
     lam = np.asarray(lam_RT, dtype=float).ravel()
     lv = np.asarray(lv_RT, dtype=float).ravel()
+    one_mode = np.ndim(hw_RT) == 0
     hw = np.broadcast_to(np.asarray(hw_RT, dtype=float).ravel(), x.shape)
     out = np.full(x.shape, np.nan)
     with np.errstate(invalid="ignore"):
         ok = np.isfinite(x) & np.isfinite(lam) & np.isfinite(lv) & (lv >= 0) & (lv < lam)
         out[ok & (lv == 0)] = 0.0  # whatever the mode: no inner part, the classical rate
-        ok &= (lv > 0) & (hw > 0) & np.isfinite(hw)
+        ok &= lv > 0
+        if one_mode:
+            ok &= bool(hw_RT > 0 and math.isfinite(hw_RT))
+        else:
+            ok &= (hw > 0) & np.isfinite(hw)
     if not np.any(ok):
         return out
-    xs, lams, lvs, hws = x[ok], lam[ok], lv[ok], hw[ok]
-    p = _pairs(lams - lvs, lvs, hws)
+    if np.all(ok):  # the usual case: no copies
+        xs, lams, lvs, hws = x, lam, lv, hw
+    else:
+        xs, lams, lvs, hws = x[ok], lam[ok], lv[ok], hw[ok]
+    p = _pairs(lams - lvs, lvs, float(hw_RT) if one_mode else hws)
     with np.errstate(invalid="ignore", over="ignore", under="ignore", divide="ignore"):
         lx, bad = _level_sum(xs, p, w)
         l0, bad0 = _sums_at_zero(p, lvs, w)
@@ -365,6 +390,8 @@ def ln_q_pairs_rt(x_RT, lam_RT, lv_RT, hw_RT, w: LevelWeights) -> np.ndarray:
 
         RT = GAS_CONSTANT * w.T_K
         q[bad] = ln_quantum_factor(xs[bad] * RT, p.ls[bad] * RT, lvs[bad] * RT, hws[bad] * RT, w.T_K)
+    if q.shape == out.shape:
+        return q
     out[ok] = q
     return out
 
