@@ -29,21 +29,13 @@ from dataclasses import dataclass
 import numpy as np
 
 from .constants import GAS_CONSTANT
+from .level_window import level_window
 
 #: Stated agreement of ln Q with the exact per-pair sum (crossrate.core.semiclassical.ln_quantum_factor).
 LEVEL_SUM_TOLERANCE = 1e-5
 #: Grid step in sqrt(y) of the weight table: the interpolation error of G_n is at most step^2 / 8 max|G_n''|
 #: in that variable (G_n ~ y^2 / (|n| + 1) near 0 and ~ 2y far out, both smooth in sqrt(y)).
 ROOT_Y_STEP = 1e-3
-#: Half-width of a window of levels: sigmas of the terms' local Gaussian shape, plus a margin in levels.
-_WINDOW_SIGMAS = 4.5
-_WINDOW_MARGIN = 1.0
-#: Below this many thermal quanta the mode counts as cold for the window estimate (hbar omega > ~3 RT).
-COLD_NU = 0.05
-_NEWTON_STEPS = 2
-_LN_HALF = math.log(0.5)
-#: Levels kept past n = 0 on the far side of a cold mode's peak.
-_ACROSS_ZERO = 7.0
 #: Levels added on each side of a window found too short, in turn, before the exact path takes over.
 _RETRY_WIDENINGS = (4.0, 16.0)
 #: Omitted tails below this share of the sum are accepted (ln of the sum then moves by less than it, a tenth of
@@ -158,57 +150,6 @@ class _Pairs:
     root_y: np.ndarray
 
 
-def _window(x, p: _Pairs):
-    """(first level, number of levels) per pair, floats, around the peak of the terms. A warm mode: where the
-    weight, taken as a Gaussian (mean S, variance S(2 nu + 1)), meets the exponential (centre -(x + lambda_s) /
-    hbar omega, variance 2 lambda_s / hbar omega^2), symmetric. A cold one (nu < COLD_NU): the peak of
-    mu^|n| / |n|! times the exponential, by Newton steps, and on each side the width from the curvature
-    there (the weight's, 1/(m + 1/2) at m = |n|, grows towards n = 0 and the exponential's b is everywhere);
-    past n = 0 the weight drops by the factor nu / (nu + 1) per level."""
-    cold = p.nu < COLD_NU
-    start = np.empty(x.shape)
-    count = np.empty(x.shape)
-    if not np.all(cold):
-        k = ~cold
-        var_p = p.S[k] * (2.0 * p.nu[k] + 1.0)
-        var_g = 2.0 * p.ls[k] / (p.hw[k] * p.hw[k])
-        tot = var_p + var_g
-        centre = (p.S[k] * var_g - (x[k] + p.ls[k]) / p.hw[k] * var_p) / tot
-        half = np.ceil(_WINDOW_SIGMAS * np.sqrt(var_p * var_g / tot) + _WINDOW_MARGIN)
-        start[k] = np.rint(centre) - half
-        count[k] = 2.0 * half + 1.0
-    if np.any(cold):
-        # d ln(term)/dm along m = |n|: ln(mu / (m + 1/2)) -/+ (x + lambda_s -/+ m hbar omega) a, decreasing and
-        # convex in m, so Newton steps from m = 0 rise monotonically towards the root (u = m + 1/2 below).
-        k = cold if not np.all(cold) else slice(None)
-        hw = p.hw[k]
-        a = hw / (2.0 * p.ls[k])
-        e = (x[k] + p.ls[k]) * a
-        up = p.ln_mu1[k] - _LN_HALF - e > 0.0  # the terms still rise past n = 0: the peak lies above it
-        g = np.where(up, p.ln_mu1[k] - e, p.ln_mu2[k] + e)
-        b = hw * a
-        g += 0.5 * b  # ln mu -/+ e - b (u - 1/2) = g - b u
-        u = np.full(g.shape, 0.5)
-        for _ in range(_NEWTON_STEPS):
-            f = g - np.log(u)
-            f -= b * u
-            # u + f / (1/u + b) = u (1 + f / (1 + b u))
-            f /= 1.0 + b * u
-            f += 1.0
-            u *= f
-            np.maximum(u, 0.5, out=u)
-        mc = np.rint(u - 0.5)
-        s55 = _WINDOW_SIGMAS
-        inner = np.ceil(s55 / np.sqrt(1.0 / (mc + 0.5) + b) + _WINDOW_MARGIN)
-        outer = np.ceil(s55 / np.sqrt(1.0 / (mc + 1.5 + 1.0 / np.sqrt(b)) + b) + _WINDOW_MARGIN)
-        # Towards n = 0 and past it: at most mc levels to 0, then a few across it (the weight falls by
-        # (nu + 1) / nu per level on the other side).
-        np.minimum(inner, mc + _ACROSS_ZERO, out=inner)
-        start[k] = np.where(up, mc - inner, -mc - outer)
-        count[k] = inner + outer + 1.0
-    return start, count
-
-
 def _ln_sums(x, p: _Pairs, start, count, tab: _Table):
     """ln sum_n exp(G_n(y) + |n| ln mu - (x + lambda_s + n hbar omega)^2 / (4 lambda_s)) per pair (RT units; the
     factor exp(-(mu1 + mu2)) left out, being the same at every x), over the levels start .. start + count - 1,
@@ -315,7 +256,7 @@ def _pairs(ls, lv, hw) -> _Pairs:
 
 def _level_sum(x, p: _Pairs, w: LevelWeights):
     """(_ln_sums over each pair's window, widened where found short; mask of the pairs still failing)."""
-    start, count = _window(x, p)
+    start, count = level_window(x, p)
     spread = max(_RETRY_WIDENINGS) + 1.0
     tab = w.ensure(float(np.max(p.root_y)), int(np.min(start) - spread), int(np.max(start + count) + spread))
     lx, bad = _ln_sums(x, p, start, count, tab)
