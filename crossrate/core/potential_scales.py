@@ -7,13 +7,14 @@ library defines without an offset is its own root and is never silently combined
 
 import csv
 import io
-from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
+from typing import NamedTuple
 
 
-@dataclass(frozen=True)
-class PotentialScale:
+# A NamedTuple, not a frozen dataclass: a table row on the path of every prediction, and Python 3.11 compiles
+# a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class PotentialScale(NamedTuple):
     """A reference scale: E(vs relative_to) = E(vs key) + offset_V (V)."""
 
     key: str

@@ -7,9 +7,9 @@ are held at their 25 degC values (callers warn when the temperature is far from 
 
 import csv
 import io
-from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
+from typing import NamedTuple
 
 import numpy as np
 
@@ -23,8 +23,9 @@ _WATER_VOGEL = (0.02939, 507.88, 149.3)
 WATER_CORRELATION_RANGE_K = (273.15, 373.15)
 
 
-@dataclass(frozen=True)
-class Solvent:
+# A NamedTuple, not a frozen dataclass: a table row on the path of every prediction, and Python 3.11 compiles
+# a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class Solvent(NamedTuple):
     """One solvent row. eps_s and n_D dimensionless, viscosity in mPa s, all at 25 degC."""
 
     key: str

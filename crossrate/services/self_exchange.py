@@ -19,7 +19,7 @@ Pekar shift in 2), giving sigma(ln k) = sigma(lambda)/(4RT); plus DEFAULT_KAPPA_
 kappa_el.
 """
 
-from dataclasses import dataclass, field
+from typing import NamedTuple
 
 import numpy as np
 
@@ -58,10 +58,9 @@ METHOD_NAMES = (
 _LN10 = float(np.log(10.0))
 
 
-# eq=False: the fields are numpy arrays, which a generated __eq__ and __hash__ cannot compare or hash (they
-# raised); compared by identity, and two methods fewer to define at import (a cold start).
-@dataclass(frozen=True, eq=False)
-class SelfExchangeAt:
+# A NamedTuple, not a frozen dataclass: an internal record on the path of every prediction, and Python 3.11
+# compiles a dataclass's six methods at import (about 1 ms a class of a cold command; see DEVELOPERS.md).
+class SelfExchangeAt(NamedTuple):
     """ln k_ii at target conditions for an array of couple indices.
 
     ln_k: ln(M^-1 s^-1), NaN where it cannot be obtained; ln_k_sd: natural-log SD;
@@ -71,7 +70,8 @@ class SelfExchangeAt:
     for measured couples the one the measurement implies, solvent shift included); lambda_in_J and
     lambda_out_J: its inner and two-sphere outer parts at the target (J/mol); lambda_shift_J: the Pekar shift
     applied when carried to another solvent (J/mol); lambda_sd_J: SD of the estimated part of lambda (J/mol);
-    pekar_from, pekar_to: Pekar factors of the original and target solvent; kappa_el.
+    pekar_from, pekar_to: Pekar factors of the original and target solvent; kappa_el; labels: per-entry
+    names behind description().
     Use description(k) for the plain-words account of entry k.
     """
 
@@ -80,27 +80,27 @@ class SelfExchangeAt:
     defaulted_sd: np.ndarray
     estimated: np.ndarray
     reason: tuple[str, ...]
-    method: np.ndarray | None = field(default=None, repr=False, compare=False)
-    lambda_J: np.ndarray | None = field(default=None, repr=False, compare=False)
-    lambda_in_J: np.ndarray | None = field(default=None, repr=False, compare=False)
-    lambda_out_J: np.ndarray | None = field(default=None, repr=False, compare=False)
-    lambda_shift_J: np.ndarray | None = field(default=None, repr=False, compare=False)
-    lambda_sd_J: np.ndarray | None = field(default=None, repr=False, compare=False)
-    pekar_from: np.ndarray | None = field(default=None, repr=False, compare=False)
-    pekar_to: np.ndarray | None = field(default=None, repr=False, compare=False)
-    kappa_el: np.ndarray | None = field(default=None, repr=False, compare=False)
-    _labels: tuple | None = field(default=None, repr=False, compare=False)
+    method: np.ndarray | None = None
+    lambda_J: np.ndarray | None = None
+    lambda_in_J: np.ndarray | None = None
+    lambda_out_J: np.ndarray | None = None
+    lambda_shift_J: np.ndarray | None = None
+    lambda_sd_J: np.ndarray | None = None
+    pekar_from: np.ndarray | None = None
+    pekar_to: np.ndarray | None = None
+    kappa_el: np.ndarray | None = None
+    labels: tuple | None = None
 
     def description(self, k: int) -> str:
         """How entry k's k_self was obtained, when anything estimated went into it: which quantity, from what,
         how uncertain. '' for a measured k_self used in its own solvent (or when no k_self could be had)."""
-        if self.method is None or self._labels is None:
+        if self.method is None or self.labels is None:
             return ""
         return _describe(self, int(k))
 
 
 def _describe(se: SelfExchangeAt, k: int) -> str:
-    ids, med_from, med_to, radius_A, in_from, kappa_from = (lab[k] for lab in se._labels)
+    ids, med_from, med_to, radius_A, in_from, kappa_from = (lab[k] for lab in se.labels)
     m = int(se.method[k])
     if m in (METHOD_NONE, METHOD_MEASURED):
         return ""
@@ -308,5 +308,5 @@ def self_exchange_at(couple_set: CoupleSet, idx, T_K, I_M, eps_target, ln_Z, med
         pekar_from=pekar0,
         pekar_to=pekar_t,
         kappa_el=kappa,
-        _labels=labels,
+        labels=labels,
     )
