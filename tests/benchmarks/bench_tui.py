@@ -147,8 +147,15 @@ def tmux_start(runs: int = 3):
     for k in range(runs):
         name = f"crossrate-bench-{os.getpid()}-{k}"
         cmd = f"cd {ROOT} && {sys.executable} -m crossrate.cli.main; sleep 30"
-        t0 = time.perf_counter()
-        subprocess.run(["tmux", "new-session", "-d", "-s", name, "-x", "80", "-y", "24", cmd], check=True)
+        for _attempt in range(3):  # the server of the session killed just before may still be exiting
+            t0 = time.perf_counter()
+            started = subprocess.run(["tmux", "new-session", "-d", "-s", name, "-x", "80", "-y", "24", cmd],
+                                     capture_output=True)
+            if started.returncode == 0:
+                break
+            time.sleep(0.2)
+        else:
+            started.check_returncode()
         try:
             got_paint = None
             while time.perf_counter() - t0 < 10:
@@ -156,7 +163,9 @@ def tmux_start(runs: int = 3):
                                         text=True).stdout
                 if got_paint is None and "oxidant (o)" in screen:
                     got_paint = time.perf_counter() - t0
-                if "couples from" in screen:
+                # the table's status line with the pair line: a frame half written can show the one without the
+                # other, and the first frame may already hold the rows
+                if got_paint is not None and "couples from" in screen:
                     painted.append(got_paint)
                     filled.append(time.perf_counter() - t0)
                     break
