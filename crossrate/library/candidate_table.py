@@ -5,7 +5,7 @@ potential scale the screen names), radius (angstrom), and exactly one of k_self 
 lambda_total (kJ/mol, the self-exchange reorganization energy); name, source and notes may be present and
 are not read. Lines starting with '#' and blank lines are skipped. Every cell is checked with the rules of
 the library format (schema.FIELD_SPECS ranges, charge_ox - charge_red = 1, ids of the allowed characters
-and each id once). A plain file is read in one vectorized pass (numpy.loadtxt) and checked on whole columns;
+and each id once). A plain ASCII file is read in one vectorized pass (numpy.loadtxt) and checked on whole columns;
 when that pass finds anything wrong (or cannot read the file), a second, row-by-row pass lists every
 problem as `file:line:column: ...` (LibraryError), so speed never costs a clear message.
 """
@@ -99,6 +99,11 @@ def _in_range(name: str, v: np.ndarray) -> np.ndarray:
 
 def _fast(text: str, path: str, line: int, header: list[str], rate: str) -> CandidateTable | None:
     """The table from one numpy pass, or None when anything needs the row-by-row pass."""
+    if not text.isascii():
+        # numpy's text reader (2.4) has crashed the whole process on some non-ASCII input (characters beyond
+        # the Basic Multilingual Plane) in the fuzz tests. Ids and numbers are ASCII, so such a file is
+        # unusual and the row-by-row pass, which reports each cell, reads it instead.
+        return None
     cols = [*REQUIRED, rate]
     kinds = {"id": f"S{ID_BYTES}", "charge_ox": "i8", "charge_red": "i8"}
     dtype = [(c, kinds.get(c, "f8")) for c in cols]

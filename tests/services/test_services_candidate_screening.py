@@ -112,3 +112,23 @@ def test_fast_and_row_by_row_passes_agree(tmp_path):
     # a repeated id is caught by the fast pass's hash check and explained by the row-by-row pass
     dup = text + "c-2,2,1,0.1,3.8,40.0,again\n"
     assert ct._fast(dup, str(p), line, header, "k_self") is None
+
+
+def test_non_ascii_file_is_read_row_by_row(tmp_path):
+    # numpy's vectorized text reader has crashed the process on some characters beyond the Basic Multilingual
+    # Plane (found by tests/faults/test_faults_fuzz.py), so any non-ASCII file takes the row-by-row pass: a name
+    # with subscripts and a symbol outside the BMP is read, with the same values as the plain file.
+    from crossrate.library import candidate_table as ct
+
+    plain = _table(tmp_path, "k_self")
+    fancy = tmp_path / "fancy.csv"
+    fancy.write_text(plain.read_text(encoding="utf-8").replace('"cand, c-1"', '"Fe(H₂O)₆ \U0001D53D"'),
+                     encoding="utf-8")
+    text = fancy.read_text(encoding="utf-8")
+    assert not text.isascii()
+    line, header = ct._header(text, str(fancy))
+    assert ct._fast(text, str(fancy), line, header, "k_self") is None
+    a, b = read_candidate_table(plain), read_candidate_table(fancy)
+    assert [a.id_text(i) for i in range(len(a))] == [b.id_text(i) for i in range(len(b))]
+    for name in ("z_ox", "z_red", "E_V", "radius_A", "rate"):
+        np.testing.assert_array_equal(getattr(a, name), getattr(b, name))
