@@ -13,7 +13,6 @@ from dataclasses import dataclass
 from ..core.constants import EV, FARADAY, KJ
 from ..errors import ScienceError
 from ..library.couple_set import CoupleSet
-from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .conditions import Conditions
 from .measured_check import Z95
 from .results import UsedConditions, _Record
@@ -23,9 +22,7 @@ from .solve_setup import (
     activation_target,
     activation_target_nudged_k_diff,
     brentq_solver,
-    check_measured_rate,
-    measured_sd,
-    setup_pair,
+    checked_measurement,
 )
 
 #: Library limit on |E| (V): a root beyond it is not a potential the data can support.
@@ -117,14 +114,9 @@ def solve_potential(
     decides the direction when role is 'auto'. Returns PotentialSolution with E in V on the unknown's own
     E_scale (the library field E, ground state when the couple is an excited state's).
     """
-    require_couple_set(couple_set)
-    require_id(unknown, "unknown")
-    require_id(partner, "partner")
-    require_number(k_measured, "k_measured", "M^-1 s^-1")
-    require_conditions(conditions)
-    k_measured = check_measured_rate(k_measured)
-    sd, defaulted = measured_sd(k_measured_log10_sd)
-    s = setup_pair(couple_set, unknown, partner, role, conditions)
+    s, k_measured, sd, defaulted = checked_measurement(
+        couple_set, unknown, partner, k_measured, k_measured_log10_sd, role, conditions
+    )
     if not math.isfinite(s.ln_k_unknown):
         raise ScienceError(
             f"{s.unknown.id} has no k_self and no reorganization energy: solving for its potential needs one"

@@ -17,6 +17,7 @@ from ..core.cross_rate import CrossRateArrays, cross_rate
 from ..errors import ConditionsError, ScienceError
 from ..library.couple import Couple
 from ..library.couple_set import CoupleSet
+from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .carried_potentials import potential_warnings
 from .conditions import Conditions
 from .measured_check import DEFAULT_MEASURED_LOG10_SD, require_positive
@@ -211,6 +212,19 @@ def measured_sd(sd) -> tuple[float, bool]:
 def check_measured_rate(k) -> float:
     """The measured cross rate, M^-1 s^-1, refused unless a finite number above 0."""
     return require_positive(k, "measured rate", "a rate constant greater than 0 in M^-1 s^-1")
+
+
+def checked_measurement(couple_set, unknown, partner, k_measured, k_measured_log10_sd, role, conditions):
+    """The solvers' common arguments checked and the pair set up: (PairSetup, k_measured M^-1 s^-1, SD of
+    log10 k_measured, whether that SD is the default). ArgumentError/ScienceError on bad input."""
+    require_couple_set(couple_set)
+    require_id(unknown, "unknown")
+    require_id(partner, "partner")
+    require_number(k_measured, "k_measured", "M^-1 s^-1")
+    require_conditions(conditions)
+    k = check_measured_rate(k_measured)
+    sd, defaulted = measured_sd(k_measured_log10_sd)
+    return setup_pair(couple_set, unknown, partner, role, conditions), k, sd, defaulted
 
 
 def lambda_kJ(setup: PairSetup, ln_k_self: float, which: str = "unknown") -> float:

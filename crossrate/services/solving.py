@@ -19,7 +19,6 @@ from dataclasses import dataclass
 from ..core.constants import KJ
 from ..errors import ScienceError
 from ..library.couple_set import CoupleSet
-from .arguments import require_conditions, require_couple_set, require_id, require_number
 from .conditions import Conditions
 from .measured_check import Z95
 from .potential_solving import E_LIMIT_V, PotentialSolution, solve_potential
@@ -30,10 +29,8 @@ from .solve_setup import (
     activation_target,
     activation_target_nudged_k_diff,
     brentq_solver,
-    check_measured_rate,
+    checked_measurement,
     lambda_kJ,
-    measured_sd,
-    setup_pair,
 )
 
 __all__ = [
@@ -154,14 +151,9 @@ def solve_k_self(
         KSelfSolution (log10 M^-1 s^-1, kJ/mol). ScienceError when the rate is at or above k_D or faster
         than any k_self allows.
     """
-    require_couple_set(couple_set)
-    require_id(unknown, "unknown")
-    require_id(partner, "partner")
-    require_number(k_measured, "k_measured", "M^-1 s^-1")
-    require_conditions(conditions)
-    k_measured = check_measured_rate(k_measured)
-    sd, defaulted = measured_sd(k_measured_log10_sd)
-    s = setup_pair(couple_set, unknown, partner, role, conditions)
+    s, k_measured, sd, defaulted = checked_measurement(
+        couple_set, unknown, partner, k_measured, k_measured_log10_sd, role, conditions
+    )
     ln_meas = math.log(k_measured)
     target, limited = activation_target(s, ln_meas)
     res = s.evaluate(ln_k_unknown=0.0)
