@@ -175,14 +175,8 @@ def _mlj_shared(x, ls, lv, hw, T, lnA):
     if not np.all(np.isfinite(t)):
         return None
     tmax = t.max(axis=1)
-    for edge, inner in ((-1, -2), (0, 1)):
-        if edge == 0 and mu2 == 0.0 and start == 0:
-            continue  # n = 0 of a cold mode: nothing lies to the left
-        ln_r = t[:, edge] - t[:, inner]
-        if np.any(ln_r >= 0):
-            return None
-        if np.any(t[:, edge] - tmax + ln_r - np.log(-np.expm1(ln_r)) >= math.log(SUM_TOLERANCE)):
-            return None
+    if not _tails_ok(t, mu2 == 0.0 and start == 0).all():  # n = 0 of a cold mode: nothing lies to the left
+        return None
     return lnA + 0.5 * math.log((ls + lv) / ls) + np.log(np.exp(t - tmax[:, None]).sum(axis=1)) + tmax
 
 

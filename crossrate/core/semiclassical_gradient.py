@@ -22,7 +22,7 @@ import math
 import numpy as np
 
 from .constants import GAS_CONSTANT
-from .semiclassical import SUM_TOLERANCE, _inner_terms, _ln_factorial_table, mlj_ln_k
+from .semiclassical import _inner_terms, _ln_factorial_table, _tails_ok, mlj_ln_k
 
 
 def _window(x, ls, S, nu, hw, RT):
@@ -69,14 +69,8 @@ def _cold_sum(x, ls, lv, hw, T, gradient):
     if not np.all(np.isfinite(t)):
         return None
     tmax = t.max(axis=1)
-    for edge, inner in ((-1, -2), (0, 1)):
-        if edge == 0 and mu2 == 0.0 and start == 0:
-            continue  # n = 0 of a cold mode: nothing lies to the left
-        ln_r = t[:, edge] - t[:, inner]
-        if np.any(ln_r >= 0):
-            return None
-        if np.any(t[:, edge] - tmax + ln_r - np.log(-np.expm1(ln_r)) >= math.log(SUM_TOLERANCE)):
-            return None
+    if not _tails_ok(t, mu2 == 0.0 and start == 0).all():  # n = 0 of a cold mode: nothing lies to the left
+        return None
     e = np.exp(t - tmax[:, None])
     z = e.sum(axis=1)
     lam = ls + lv
